@@ -1,0 +1,94 @@
+// tailwise-cli: the command line over the core. Thin: parse, call core, print.
+// Exit status: 0 success, 1 bad input data, 2 bad usage.
+#include "reportprint.h"
+#include "varoptions.h"
+
+#include "tailwise/holdings.h"
+#include "tailwise/prices.h"
+#include "tailwise/risk.h"
+
+#include <cstdio>
+#include <string>
+#include <vector>
+
+namespace {
+
+constexpr int exitOk = 0;
+constexpr int exitBadInput = 1;
+constexpr int exitUsage = 2;
+
+const char *topHelp = R"(tailwise-cli: Value-at-Risk and Expected Shortfall from the command line
+
+Usage:
+  tailwise-cli var [options]     risk figures of a portfolio (tailwise-cli var --help)
+  tailwise-cli --help            this text
+  tailwise-cli --version
+)";
+
+int fail(int code, const std::string &message)
+{
+    std::fprintf(stderr, "tailwise-cli: %s\n", message.c_str());
+    return code;
+}
+
+std::string messageFor(const tailwise::Error &error)
+{
+    // A core error about an assumption names the field; say it as the option the user typed.
+    if (!error.field.empty() && error.message.rfind(error.field + ": ", 0) == 0)
+        return tailwise::cli::optionForField(error.field) + error.message.substr(error.field.size());
+    return error.message;
+}
+
+int runVar(const std::vector<std::string> &args)
+{
+    using namespace tailwise;
+    auto request = cli::parseVarOptions(args);
+    if (!request)
+        return fail(exitUsage, request.error().message);
+    const auto &req = request.value();
+    if (req.help) {
+        std::fputs(cli::varHelpText().c_str(), stdout);
+        return exitOk;
+    }
+    Result<RiskReport> report = Error{};
+    if (req.single) {
+        report = computeSinglePositionRisk(*req.single, req.assumptions);
+    } else {
+        auto prices = readPriceCsv(req.pricesPath);
+        if (!prices)
+            return fail(exitBadInput, prices.error().message);
+        auto holdings = readHoldingsCsv(req.holdingsPath, &prices.value());
+        if (!holdings)
+            return fail(exitBadInput, holdings.error().message);
+        report = computeRisk(prices.value(), holdings.value(), req.assumptions);
+    }
+    if (!report)
+        return fail(exitBadInput, messageFor(report.error()));
+    const bool single = req.single.has_value();
+    const std::string text = req.json ? cli::reportJson(report.value(), single) : cli::reportText(report.value(), single);
+    std::fputs(text.c_str(), stdout);
+    if (req.json)
+        for (const auto &w : report.value().warnings)
+            std::fprintf(stderr, "tailwise-cli: warning: %s\n", w.c_str());
+    return exitOk;
+}
+
+} // namespace
+
+int main(int argc, char **argv)
+{
+    const std::vector<std::string> args(argv + 1, argv + argc);
+    if (args.empty())
+        return fail(exitUsage, std::string("expected a command\n\n") + topHelp);
+    if (args[0] == "--help" || args[0] == "-h" || args[0] == "help") {
+        std::fputs(topHelp, stdout);
+        return exitOk;
+    }
+    if (args[0] == "--version") {
+        std::puts("tailwise-cli 0.1.0");
+        return exitOk;
+    }
+    if (args[0] == "var")
+        return runVar({args.begin() + 1, args.end()});
+    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var)");
+}

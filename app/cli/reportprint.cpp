@@ -1,0 +1,167 @@
+#include "reportprint.h"
+
+#include "numbertext.h"
+
+#include "tailwise/json.h"
+
+#include <algorithm>
+#include <cstdio>
+
+namespace tailwise::cli {
+
+namespace {
+
+std::string pad(const std::string &s, std::size_t width, bool right)
+{
+    // Width in characters; the report is ASCII apart from asset names.
+    if (s.size() >= width)
+        return s;
+    const std::string fill(width - s.size(), ' ');
+    return right ? fill + s : s + fill;
+}
+
+std::string horizonWords(int days)
+{
+    return std::to_string(days) + (days == 1 ? " trading day" : " trading days");
+}
+
+std::string confidenceText(double c)
+{
+    char buffer[32];
+    std::snprintf(buffer, sizeof buffer, "%.10g%%", c * 100.0);
+    return buffer;
+}
+
+std::string methodWords(const RiskReport &r)
+{
+    const auto &a = r.assumptions;
+    std::string s = std::string(toName(a.model)) + " model, ";
+    s += a.estimator == CovarianceEstimator::Ewma ? "EWMA covariance (lambda " + fixed(a.lambda, 4) + ")" : "sample covariance";
+    s += a.mean == MeanModel::Zero ? ", zero mean, " : ", estimated mean, ";
+    s += std::string(toName(a.returns)) + " returns";
+    return s;
+}
+
+} // namespace
+
+std::string reportText(const RiskReport &r, bool single)
+{
+    const auto &a = r.assumptions;
+    std::string out;
+    out += "Tailwise - Value-at-Risk and Expected Shortfall\n\n";
+    out += "Portfolio value     " + money(r.portfolioValue) + "\n";
+    out += "Confidence          " + confidenceText(a.confidence) + "\n";
+    out += "Horizon             " + horizonWords(a.horizonDays) + "\n";
+    if (single) {
+        out += "Position            annual volatility and drift given directly, "
+               + std::to_string(a.daysPerYear) + " trading days a year\n";
+    } else {
+        out += "Data window         " + std::to_string(r.windowReturns) + " daily returns, " + toIso(r.windowFirst)
+               + " to " + toIso(r.windowLast) + "\n";
+        out += "Method              " + methodWords(r) + "\n";
+    }
+    out += "\n";
+    out += "Value-at-Risk       " + pad(money(r.figures.var), 16, true) + "   " + percent(r.varFraction) + " of value\n";
+    out += "Expected Shortfall  " + pad(money(r.figures.es), 16, true) + "   " + percent(r.esFraction) + " of value\n";
+    out += "Horizon mean P&L    " + pad(money(r.horizon.mean), 16, true) + "\n";
+    out += "Horizon P&L s.d.    " + pad(money(r.horizon.sd), 16, true) + "\n";
+    if (!single) {
+        out += "Undiversified VaR   " + pad(money(r.undiversifiedVar), 16, true) + "   (sum of the holdings' own VaR)\n";
+        out += "Diversification     " + pad(money(r.diversificationBenefit), 16, true) + "   (undiversified minus portfolio VaR)\n";
+    }
+    out += "\nIn words: over " + horizonWords(a.horizonDays) + ", the loss is not expected to exceed "
+           + money(r.figures.var) + " with " + confidenceText(a.confidence)
+           + " confidence; in the worst " + confidenceText(1.0 - a.confidence) + " of cases the average loss is "
+           + money(r.figures.es) + ".\n";
+
+    if (!single && !r.holdings.empty()) {
+        out += "\nContributions (Euler allocation; the components add up to the portfolio VaR)\n";
+        std::size_t nameWidth = 5;
+        for (const auto &h : r.holdings)
+            nameWidth = std::max(nameWidth, h.asset.size());
+        nameWidth = std::min<std::size_t>(nameWidth, 24);
+        out += pad("asset", nameWidth, false) + pad("exposure", 17, true) + pad("weight", 10, true)
+               + pad("marginal VaR", 14, true) + pad("component VaR", 16, true) + pad("share", 10, true)
+               + pad("own VaR", 16, true) + "\n";
+        std::vector<const HoldingRisk *> sorted;
+        for (const auto &h : r.holdings)
+            sorted.push_back(&h);
+        std::stable_sort(sorted.begin(), sorted.end(),
+                         [](const HoldingRisk *x, const HoldingRisk *y) { return x->componentVar > y->componentVar; });
+        for (const HoldingRisk *h : sorted) {
+            out += pad(h->asset.substr(0, nameWidth), nameWidth, false) + pad(money(h->exposure), 17, true)
+                   + pad(percent(h->weight, 1), 10, true) + pad(fixed(h->marginalVar, 5), 14, true)
+                   + pad(money(h->componentVar), 16, true) + pad(percent(h->componentShare, 1), 10, true)
+                   + pad(money(h->standaloneVar), 16, true) + "\n";
+        }
+    }
+    if (!r.warnings.empty()) {
+        out += "\nWarnings\n";
+        for (const auto &w : r.warnings)
+            out += "  - " + w + "\n";
+    }
+    out += "\nCautions: VaR is not the worst case - losses beyond it happen, on about "
+           + confidenceText(1.0 - a.confidence) + " of horizons if the model holds. The normal model understates fat "
+           "tails. Figures are estimates from past data under the model's assumptions, for information only and not "
+           "advice; regulatory use follows local rules and approved models.\n";
+    return out;
+}
+
+std::string reportJson(const RiskReport &r, bool single)
+{
+    const auto &a = r.assumptions;
+    JsonWriter j;
+    j.beginObject();
+    j.key("portfolio_value").value(r.portfolioValue);
+    j.key("confidence").value(a.confidence);
+    j.key("horizon_days").value(a.horizonDays);
+    j.key("model").value(toName(a.model));
+    j.key("horizon_mean_money").value(r.horizon.mean);
+    j.key("horizon_sd_money").value(r.horizon.sd);
+    j.key("var").value(r.figures.var);
+    j.key("var_fraction").value(r.varFraction);
+    j.key("es").value(r.figures.es);
+    j.key("es_fraction").value(r.esFraction);
+    j.key("undiversified_var").value(r.undiversifiedVar);
+    j.key("diversification_benefit").value(r.diversificationBenefit);
+    j.key("assumptions").beginObject();
+    j.key("days_per_year").value(a.daysPerYear);
+    if (single) {
+        j.key("input").value("single-position");
+    } else {
+        j.key("input").value("holdings");
+        j.key("returns").value(toName(a.returns));
+        j.key("estimator").value(toName(a.estimator));
+        if (a.estimator == CovarianceEstimator::Ewma)
+            j.key("lambda").value(a.lambda);
+        j.key("mean").value(toName(a.mean));
+        j.key("window_returns").value(r.windowReturns);
+        j.key("window_start").value(toIso(r.windowFirst));
+        j.key("window_end").value(toIso(r.windowLast));
+    }
+    j.endObject();
+    j.key("contributions").beginArray();
+    for (const auto &h : r.holdings) {
+        j.beginObject();
+        j.key("asset").value(h.asset);
+        j.key("exposure").value(h.exposure);
+        j.key("weight").value(h.weight);
+        j.key("daily_volatility").value(h.dailyVolatility);
+        j.key("marginal_var").value(h.marginalVar);
+        j.key("component_var").value(h.componentVar);
+        j.key("component_share").value(h.componentShare);
+        j.key("component_es").value(h.componentEs);
+        j.key("standalone_var").value(h.standaloneVar);
+        j.key("standalone_es").value(h.standaloneEs);
+        j.endObject();
+    }
+    j.endArray();
+    j.key("warnings").beginArray();
+    for (const auto &w : r.warnings)
+        j.value(w);
+    j.endArray();
+    j.endObject();
+    return j.text() + "\n";
+}
+
+} // namespace tailwise::cli

@@ -1,0 +1,30 @@
+// Parsing of `tailwise-cli var` options into a request. Every refusal names the option and says
+// what was expected; nothing is read from disk here.
+#pragma once
+
+#include "tailwise/assumptions.h"
+#include "tailwise/parametric.h"
+#include "tailwise/result.h"
+
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace tailwise::cli {
+
+struct VarRequest {
+    std::string pricesPath;
+    std::string holdingsPath;
+    std::optional<SinglePosition> single; // --value/--volatility[/--drift] mode
+    Assumptions assumptions;
+    bool json = false;
+    bool help = false;
+};
+
+Result<VarRequest> parseVarOptions(const std::vector<std::string> &args);
+std::string varHelpText();
+
+// "window" → "--window": the CLI's name for a core field, so messages speak the user's language.
+std::string optionForField(const std::string &field);
+
+} // namespace tailwise::cli

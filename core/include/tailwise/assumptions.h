@@ -1,0 +1,48 @@
+// The assumptions behind a risk figure, and their checks.
+//
+// Every field has a domain; validate() refuses a value outside it with an Error whose `field`
+// names the assumption (the CLI maps that name to its option, the window to its field).
+#pragma once
+
+#include "tailwise/result.h"
+
+#include <optional>
+#include <string>
+#include <string_view>
+
+namespace tailwise {
+
+enum class ReturnType { Simple, Log };       // r = P_t/P_{t-1} − 1, or ln(P_t/P_{t-1})
+enum class CovarianceEstimator { Sample, Ewma };
+enum class MeanModel { Zero, Sample };       // daily mean taken as zero, or estimated
+enum class RiskModel { Normal };             // later models extend this
+
+struct Assumptions {
+    double confidence = 0.99;      // C, 0 < C < 1
+    int horizonDays = 1;           // H, whole trading days ≥ 1
+    int daysPerYear = 252;         // N, for annualised read-outs and the single-position mode
+    std::optional<int> window;     // number of most recent returns; all when unset
+    ReturnType returns = ReturnType::Simple;
+    CovarianceEstimator estimator = CovarianceEstimator::Sample;
+    double lambda = 0.94;          // EWMA decay, 0 < λ < 1
+    MeanModel mean = MeanModel::Zero;
+    RiskModel model = RiskModel::Normal;
+};
+
+Status validate(const Assumptions &assumptions);
+
+// Names used in files, the CLI and JSON ("simple", "ewma", "normal", …) and their parsers.
+std::string_view toName(ReturnType value);
+std::string_view toName(CovarianceEstimator value);
+std::string_view toName(MeanModel value);
+std::string_view toName(RiskModel value);
+std::optional<ReturnType> parseReturnType(std::string_view name);
+std::optional<CovarianceEstimator> parseEstimator(std::string_view name);
+std::optional<MeanModel> parseMeanModel(std::string_view name);
+std::optional<RiskModel> parseRiskModel(std::string_view name);
+
+// The EWMA's effective number of days, 1/(1−λ): the mean age weighting of its observations
+// plus one (common practice as a read-out of λ; e.g. λ = 0.94 → about 16.7 days).
+double ewmaEffectiveDays(double lambda);
+
+} // namespace tailwise

@@ -1,0 +1,181 @@
+#include "csvtext.h"
+
+#include <charconv>
+#include <cmath>
+#include <cstdio>
+#include <filesystem>
+#include <system_error>
+
+namespace tailwise::csv {
+
+std::string_view stripBom(std::string_view text)
+{
+    if (text.size() >= 3 && static_cast<unsigned char>(text[0]) == 0xEF
+        && static_cast<unsigned char>(text[1]) == 0xBB && static_cast<unsigned char>(text[2]) == 0xBF)
+        text.remove_prefix(3);
+    return text;
+}
+
+bool LineReader::next(std::string_view &line)
+{
+    if (m_pos >= m_text.size())
+        return false;
+    std::size_t end = m_text.find('\n', m_pos);
+    if (end == std::string_view::npos)
+        end = m_text.size();
+    line = m_text.substr(m_pos, end - m_pos);
+    if (!line.empty() && line.back() == '\r')
+        line.remove_suffix(1);
+    m_pos = end + 1;
+    ++m_line;
+    return true;
+}
+
+namespace {
+std::string_view trim(std::string_view s)
+{
+    while (!s.empty() && (s.front() == ' ' || s.front() == '\t'))
+        s.remove_prefix(1);
+    while (!s.empty() && (s.back() == ' ' || s.back() == '\t'))
+        s.remove_suffix(1);
+    return s;
+}
+} // namespace
+
+Result<std::vector<Cell>> splitLine(std::string_view line, const std::string &source, int lineNumber)
+{
+    std::vector<Cell> cells;
+    std::size_t pos = 0;
+    int column = 1;
+    while (true) {
+        Cell cell;
+        cell.column = column;
+        // Skip leading blanks to see whether the cell is quoted.
+        std::size_t start = pos;
+        while (start < line.size() && (line[start] == ' ' || line[start] == '\t'))
+            ++start;
+        if (start < line.size() && line[start] == '"') {
+            std::string value;
+            bool escaped = false;
+            std::size_t i = start + 1;
+            bool closed = false;
+            for (; i < line.size(); ++i) {
+                if (line[i] == '"') {
+                    if (i + 1 < line.size() && line[i + 1] == '"') {
+                        value += '"';
+                        escaped = true;
+                        ++i;
+                        continue;
+                    }
+                    closed = true;
+                    break;
+                }
+                value += line[i];
+            }
+            if (!closed)
+                return fileError(ErrorKind::Format, source, lineNumber, column,
+                                 "a quoted cell is not closed: expected a closing '\"'");
+            std::size_t after = i + 1;
+            while (after < line.size() && (line[after] == ' ' || line[after] == '\t'))
+                ++after;
+            if (after < line.size() && line[after] != ',')
+                return fileError(ErrorKind::Format, source, lineNumber, column,
+                                 "unexpected text after a quoted cell: expected ',' or the end of the line");
+            cell.text = line.substr(start + 1, i - start - 1);
+            if (escaped)
+                cell.unescaped = std::move(value);
+            cells.push_back(std::move(cell));
+            if (after >= line.size())
+                return cells;
+            pos = after + 1;
+        } else {
+            std::size_t end = line.find(',', pos);
+            const bool last = end == std::string_view::npos;
+            if (last)
+                end = line.size();
+            cell.text = trim(line.substr(pos, end - pos));
+            cells.push_back(std::move(cell));
+            if (last)
+                return cells;
+            pos = end + 1;
+        }
+        ++column;
+    }
+}
+
+bool isNonFiniteLiteral(std::string_view text)
+{
+    if (!text.empty() && (text.front() == '+' || text.front() == '-'))
+        text.remove_prefix(1);
+    std::string lower;
+    for (char c : text)
+        lower += static_cast<char>(c >= 'A' && c <= 'Z' ? c - 'A' + 'a' : c);
+    return lower == "nan" || lower == "inf" || lower == "infinity" || lower.rfind("nan(", 0) == 0;
+}
+
+std::optional<double> parseNumber(std::string_view text)
+{
+    if (text.empty())
+        return std::nullopt;
+    if (text.front() == '+')
+        text.remove_prefix(1);
+    double value = 0.0;
+    const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
+    if (ec != std::errc() || end != text.data() + text.size() || !std::isfinite(value))
+        return std::nullopt;
+    return value;
+}
+
+std::string quoteForMessage(std::string_view text)
+{
+    if (text.empty())
+        return "an empty cell";
+    std::string out = "\"";
+    const std::size_t limit = 40;
+    for (std::size_t i = 0; i < text.size() && i < limit; ++i) {
+        const unsigned char c = static_cast<unsigned char>(text[i]);
+        out += (c < 0x20 || c == 0x7F) ? '?' : static_cast<char>(c);
+    }
+    if (text.size() > limit)
+        out += "…";
+    out += "\"";
+    return out;
+}
+
+Result<std::string> readFileText(const std::string &path, std::size_t maxBytes)
+{
+    namespace fs = std::filesystem;
+    std::error_code ec;
+    const fs::file_status status = fs::status(path, ec);
+    if (ec || !fs::exists(status))
+        return fileError(ErrorKind::FileUnreadable, path, 0, 0, "the file does not exist");
+    if (fs::is_directory(status))
+        return fileError(ErrorKind::FileUnreadable, path, 0, 0, "this is a folder, not a file");
+    const auto size = fs::file_size(path, ec);
+    if (!ec && size > maxBytes)
+        return fileError(ErrorKind::FileUnreadable, path, 0, 0,
+                         "the file is " + std::to_string(size / (1024 * 1024)) + " MiB, over the limit of "
+                             + std::to_string(maxBytes / (1024 * 1024)) + " MiB");
+    std::FILE *file = std::fopen(path.c_str(), "rb");
+    if (!file)
+        return fileError(ErrorKind::FileUnreadable, path, 0, 0, "the file cannot be opened for reading");
+    std::string text;
+    if (!ec)
+        text.reserve(static_cast<std::size_t>(size));
+    char buffer[1 << 16];
+    std::size_t got = 0;
+    while ((got = std::fread(buffer, 1, sizeof buffer, file)) > 0) {
+        text.append(buffer, got);
+        if (text.size() > maxBytes) {
+            std::fclose(file);
+            return fileError(ErrorKind::FileUnreadable, path, 0, 0, "the file is over the size limit");
+        }
+    }
+    const bool failed = std::ferror(file) != 0;
+    std::fclose(file);
+    if (failed)
+        return fileError(ErrorKind::FileUnreadable, path, 0, 0, "the file could not be read to the end");
+    return text;
+}
+
+} // namespace tailwise::csv

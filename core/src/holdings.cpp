@@ -1,0 +1,228 @@
+#include "tailwise/holdings.h"
+
+#include "csvtext.h"
+
+#include <charconv>
+#include <unordered_map>
+
+namespace tailwise {
+
+namespace {
+
+std::string lower(std::string_view s)
+{
+    std::string out(s);
+    for (char &c : out)
+        if (c >= 'A' && c <= 'Z')
+            c = static_cast<char>(c - 'A' + 'a');
+    return out;
+}
+
+} // namespace
+
+Result<Holdings> parseHoldingsCsv(std::string_view text, const std::string &source, const PriceHistory *prices)
+{
+    constexpr std::size_t maxLine = 64 * 1024;
+    constexpr std::size_t maxHoldings = 100000;
+    csv::LineReader lines(text);
+    std::string_view line;
+    bool haveHeader = false;
+    while (lines.next(line)) {
+        if (line.size() > maxLine)
+            return fileError(ErrorKind::Format, source, lines.lineNumber(), 0, "the line is longer than the limit of 64 KiB");
+        if (!line.empty()) {
+            haveHeader = true;
+            break;
+        }
+    }
+    if (!haveHeader)
+        return fileError(ErrorKind::Format, source, 0, 0,
+                         "the file is empty: expected a header 'asset,quantity' (optionally ',price') or 'asset,value'");
+    const int headerLine = lines.lineNumber();
+    auto header = csv::splitLine(line, source, headerLine);
+    if (!header)
+        return header.error();
+    int assetCol = -1, quantityCol = -1, priceCol = -1, valueCol = -1;
+    for (const auto &cell : header.value()) {
+        const std::string name = lower(cell.value());
+        int *slot = name == "asset" ? &assetCol : name == "quantity" ? &quantityCol
+                  : name == "price" ? &priceCol : name == "value" ? &valueCol : nullptr;
+        if (!slot)
+            return fileError(ErrorKind::Format, source, headerLine, cell.column,
+                             "unknown column " + csv::quoteForMessage(cell.value())
+                                 + ": expected asset, quantity, price or value");
+        if (*slot >= 0)
+            return fileError(ErrorKind::Format, source, headerLine, cell.column,
+                             "the column '" + name + "' appears twice");
+        *slot = cell.column - 1;
+    }
+    if (assetCol < 0)
+        return fileError(ErrorKind::Format, source, headerLine, 0, "expected an 'asset' column");
+    if ((quantityCol < 0) == (valueCol < 0))
+        return fileError(ErrorKind::Format, source, headerLine, 0,
+                         "expected exactly one of the columns 'quantity' or 'value'");
+    if (valueCol >= 0 && priceCol >= 0)
+        return fileError(ErrorKind::Format, source, headerLine, priceCol + 1,
+                         "a 'price' column applies to quantities, not to holdings given by 'value'");
+    const std::size_t columns = header.value().size();
+
+    Holdings holdings;
+    std::unordered_map<std::string, int> firstLine;
+    while (lines.next(line)) {
+        const int lineNo = lines.lineNumber();
+        if (line.size() > maxLine)
+            return fileError(ErrorKind::Format, source, lineNo, 0, "the line is longer than the limit of 64 KiB");
+        if (line.empty())
+            continue;
+        if (holdings.size() >= maxHoldings)
+            return fileError(ErrorKind::Format, source, lineNo, 0, "more than 100000 holdings: over the limit");
+        auto split = csv::splitLine(line, source, lineNo);
+        if (!split)
+            return split.error();
+        const auto &cells = split.value();
+        if (cells.size() != columns)
+            return fileError(ErrorKind::Format, source, lineNo, static_cast<int>(std::min(cells.size(), columns)) + 1,
+                             "the row has " + std::to_string(cells.size()) + " cells, expected "
+                                 + std::to_string(columns) + " as in the header");
+        Holding holding;
+        holding.asset = std::string(cells[static_cast<std::size_t>(assetCol)].value());
+        if (holding.asset.empty())
+            return fileError(ErrorKind::Format, source, lineNo, assetCol + 1, "expected an asset name, found an empty cell");
+        auto number = [&](int col, const char *what) -> Result<double> {
+            const auto text = cells[static_cast<std::size_t>(col)].value();
+            const auto v = csv::parseNumber(text);
+            if (!v)
+                return fileError(ErrorKind::Value, source, lineNo, col + 1,
+                                 std::string("expected ") + what + " (a finite number), found " + csv::quoteForMessage(text));
+            return *v;
+        };
+        if (quantityCol >= 0) {
+            auto q = number(quantityCol, "a quantity");
+            if (!q)
+                return q.error();
+            holding.quantity = q.value();
+        } else {
+            auto v = number(valueCol, "a value");
+            if (!v)
+                return v.error();
+            holding.value = v.value();
+        }
+        if (priceCol >= 0 && !cells[static_cast<std::size_t>(priceCol)].value().empty()) {
+            auto p = number(priceCol, "a price");
+            if (!p)
+                return p.error();
+            if (p.value() <= 0.0)
+                return fileError(ErrorKind::Value, source, lineNo, priceCol + 1,
+                                 "expected a price greater than zero, found " + std::string(cells[static_cast<std::size_t>(priceCol)].value()));
+            holding.priceOverride = p.value();
+        }
+        if (prices && prices->assetIndex(holding.asset) < 0)
+            return fileError(ErrorKind::Reference, source, lineNo, assetCol + 1,
+                             "the asset \"" + holding.asset + "\" is not in the price history"
+                                 + (prices->sourceName.empty() ? std::string() : " (" + prices->sourceName + ")"));
+        const auto [it, inserted] = firstLine.emplace(holding.asset, lineNo);
+        if (!inserted)
+            return fileError(ErrorKind::Reference, source, lineNo, assetCol + 1,
+                             "the asset \"" + holding.asset + "\" is listed twice (first on line "
+                                 + std::to_string(it->second) + ")");
+        holdings.push_back(std::move(holding));
+    }
+    if (holdings.empty())
+        return fileError(ErrorKind::InsufficientData, source, headerLine + 1, 0,
+                         "the file has a header but no holdings");
+    return holdings;
+}
+
+Result<Holdings> readHoldingsCsv(const std::string &path, const PriceHistory *prices)
+{
+    auto text = csv::readFileText(path, 64u * 1024u * 1024u);
+    if (!text)
+        return text.error();
+    return parseHoldingsCsv(text.value(), path, prices);
+}
+
+std::string writeHoldingsCsv(const Holdings &holdings)
+{
+    bool anyValue = false, anyQuantity = false, anyOverride = false;
+    for (const auto &h : holdings) {
+        anyValue |= h.value.has_value();
+        anyQuantity |= !h.value.has_value();
+        anyOverride |= h.priceOverride.has_value();
+    }
+    auto number = [](double v) {
+        char buffer[64];
+        const auto [end, ec] = std::to_chars(buffer, buffer + sizeof buffer, v);
+        return std::string(buffer, end);
+    };
+    auto name = [](const std::string &s) {
+        if (s.find_first_of(",\"") == std::string::npos)
+            return s;
+        std::string out = "\"";
+        for (char c : s) {
+            if (c == '"')
+                out += '"';
+            out += c;
+        }
+        return out + "\"";
+    };
+    std::string out;
+    if (anyValue && !anyQuantity) {
+        out = "asset,value\n";
+        for (const auto &h : holdings)
+            out += name(h.asset) + "," + number(*h.value) + "\n";
+        return out;
+    }
+    // Quantities (a holding given by value is written as an equivalent quantity at price 1 would
+    // lose meaning, so value holdings are written with their value as quantity × override 1).
+    out = anyOverride || anyValue ? "asset,quantity,price\n" : "asset,quantity\n";
+    for (const auto &h : holdings) {
+        out += name(h.asset) + ",";
+        if (h.value) {
+            out += number(*h.value);
+            out += ",1\n";
+            continue;
+        }
+        out += number(h.quantity);
+        if (anyOverride || anyValue) {
+            out += ',';
+            if (h.priceOverride)
+                out += number(*h.priceOverride);
+        }
+        out += "\n";
+    }
+    return out;
+}
+
+double holdingPrice(const Holding &holding, const PriceHistory &prices)
+{
+    if (holding.priceOverride)
+        return *holding.priceOverride;
+    const int index = prices.assetIndex(holding.asset);
+    assert(index >= 0 && prices.prices.rows() > 0);
+    return prices.prices(prices.prices.rows() - 1, index);
+}
+
+double holdingExposure(const Holding &holding, const PriceHistory &prices)
+{
+    if (holding.value)
+        return *holding.value;
+    return holding.quantity * holdingPrice(holding, prices);
+}
+
+Status checkHoldings(const Holdings &holdings, const PriceHistory &prices)
+{
+    std::unordered_map<std::string, std::size_t> seen;
+    for (std::size_t i = 0; i < holdings.size(); ++i) {
+        const auto &h = holdings[i];
+        const std::string row = "holding " + std::to_string(i + 1);
+        if (prices.assetIndex(h.asset) < 0)
+            return fieldError(ErrorKind::Reference, row, "the asset \"" + h.asset + "\" is not in the price history");
+        const auto [it, inserted] = seen.emplace(h.asset, i);
+        if (!inserted)
+            return fieldError(ErrorKind::Reference, row,
+                              "the asset \"" + h.asset + "\" is already held in holding " + std::to_string(it->second + 1));
+    }
+    return Done{};
+}
+
+} // namespace tailwise
