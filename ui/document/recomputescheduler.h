@@ -1,0 +1,43 @@
+// RecomputeScheduler: turns workbook input changes into results.
+//
+// Input signals are coalesced by a zero-delay single-shot timer (a burst of edits in one event
+// loop turn costs one computation). The inputs are copied into a plain core request and run:
+// inline when the model is cheap (closed-form models take well under a frame), on a worker thread
+// otherwise, with the workbook's input generation attached so that a result computed from
+// outdated inputs is dropped. A running background job is asked to stop when inputs change again.
+#pragma once
+
+#include <QObject>
+#include <QTimer>
+
+#include <atomic>
+#include <memory>
+
+namespace tailwise::ui {
+
+class Workbook;
+
+class RecomputeScheduler : public QObject {
+    Q_OBJECT
+public:
+    explicit RecomputeScheduler(Workbook &workbook, QObject *parent = nullptr);
+    ~RecomputeScheduler() override;
+
+    // Computes now, inline, whatever the model (for tests and the screenshot mode).
+    void computeNow();
+    // Asks a running background computation to stop; its result is discarded.
+    void cancel();
+
+signals:
+    void progress(double fraction); // 0…1, background jobs only
+
+private:
+    void schedule();
+    void run();
+
+    Workbook &m_workbook;
+    QTimer m_timer;
+    std::shared_ptr<std::atomic<bool>> m_stop; // of the running background job, if any
+};
+
+} // namespace tailwise::ui

@@ -1,0 +1,140 @@
+#include "workbook.h"
+
+#include <QUndoStack>
+
+namespace tailwise::ui {
+
+Workbook::Workbook(QObject *parent) : QObject(parent), m_undo(new QUndoStack(this))
+{
+    connect(m_undo, &QUndoStack::cleanChanged, this, [this](bool) { emit modifiedChanged(isModified()); });
+}
+
+Workbook::~Workbook() = default;
+
+void Workbook::setFilePath(const QString &path)
+{
+    if (path == m_filePath)
+        return;
+    m_filePath = path;
+    emit filePathChanged();
+}
+
+bool Workbook::isModified() const
+{
+    return m_unsavedWithoutUndo || !m_undo->isClean();
+}
+
+void Workbook::markSaved(const QString &path)
+{
+    m_unsavedWithoutUndo = false;
+    m_undo->setClean();
+    setFilePath(path);
+    emit modifiedChanged(isModified());
+}
+
+void Workbook::resetContents(WorkbookContents contents, const QString &fromFile)
+{
+    emit holdingsAboutToBeReset();
+    m_contents = std::move(contents);
+    m_undo->clear();
+    m_unsavedWithoutUndo = false;
+    m_report.reset();
+    m_error.reset();
+    setFilePath(fromFile);
+    emit holdingsReset();
+    emit pricesChanged();
+    emit assumptionsChanged();
+    emit titleChanged();
+    emit contentsReset();
+    emit modifiedChanged(isModified());
+    inputsTouched();
+}
+
+void Workbook::inputsTouched()
+{
+    ++m_generation;
+    emit inputsChanged();
+}
+
+void Workbook::applyHolding(int row, const Holding &holding)
+{
+    Q_ASSERT(row >= 0 && row < static_cast<int>(m_contents.holdings.size()));
+    m_contents.holdings[static_cast<std::size_t>(row)] = holding;
+    emit holdingEdited(row);
+    inputsTouched();
+}
+
+void Workbook::applyInsertHoldings(int row, const Holdings &holdings)
+{
+    Q_ASSERT(row >= 0 && row <= static_cast<int>(m_contents.holdings.size()));
+    if (holdings.empty())
+        return;
+    emit holdingsAboutToBeInserted(row, static_cast<int>(holdings.size()));
+    m_contents.holdings.insert(m_contents.holdings.begin() + row, holdings.begin(), holdings.end());
+    emit holdingsInserted();
+    inputsTouched();
+}
+
+void Workbook::applyRemoveHoldings(int row, int count)
+{
+    Q_ASSERT(row >= 0 && count >= 0 && row + count <= static_cast<int>(m_contents.holdings.size()));
+    if (count == 0)
+        return;
+    emit holdingsAboutToBeRemoved(row, count);
+    m_contents.holdings.erase(m_contents.holdings.begin() + row, m_contents.holdings.begin() + row + count);
+    emit holdingsRemoved();
+    inputsTouched();
+}
+
+void Workbook::applyHoldings(const Holdings &holdings)
+{
+    emit holdingsAboutToBeReset();
+    m_contents.holdings = holdings;
+    emit holdingsReset();
+    inputsTouched();
+}
+
+void Workbook::applyAssumptions(const Assumptions &assumptions)
+{
+    m_contents.assumptions = assumptions;
+    emit assumptionsChanged();
+    inputsTouched();
+}
+
+void Workbook::applyPrices(const PriceHistory &prices)
+{
+    m_contents.prices = prices;
+    emit pricesChanged();
+    inputsTouched();
+}
+
+void Workbook::applyTitle(const QString &title)
+{
+    m_contents.title = title;
+    emit titleChanged();
+    inputsTouched();
+}
+
+void Workbook::setComputing(bool computing)
+{
+    if (computing == m_computing)
+        return;
+    m_computing = computing;
+    emit computingChanged(computing);
+}
+
+void Workbook::publishResult(quint64 generation, Result<RiskReport> result)
+{
+    if (generation != m_generation)
+        return; // computed from inputs that have changed since
+    if (result.ok()) {
+        m_report = std::move(result).value();
+        m_error.reset();
+    } else {
+        m_error = result.error();
+        m_report.reset();
+    }
+    emit resultsChanged();
+}
+
+} // namespace tailwise::ui

@@ -1,0 +1,113 @@
+// Workbook: the one document of the window. It owns the inputs (price history, holdings,
+// assumptions, title), the undo stack and the latest results, and says precisely what changed
+// through specific signals. Panels get it passed in; there is no global instance.
+//
+// Who changes what:
+//   - user edits go through the free functions in commands.h, which push undo commands; the
+//     commands call the apply*() mutators below (and nothing else should);
+//   - opening a file or "New" calls resetContents(), which also clears the undo stack;
+//   - RecomputeScheduler (recomputescheduler.h) computes results and calls publishResult().
+#pragma once
+
+#include "tailwise/assumptions.h"
+#include "tailwise/holdings.h"
+#include "tailwise/prices.h"
+#include "tailwise/result.h"
+#include "tailwise/risk.h"
+
+#include <QObject>
+#include <QString>
+
+#include <optional>
+
+class QUndoStack;
+
+namespace tailwise::ui {
+
+// Everything a workbook file stores.
+struct WorkbookContents {
+    QString title;                 // shown in the window title and on reports
+    tailwise::PriceHistory prices; // embedded: a workbook carries its own data
+    tailwise::Holdings holdings;
+    tailwise::Assumptions assumptions;
+};
+
+class Workbook : public QObject {
+    Q_OBJECT
+public:
+    explicit Workbook(QObject *parent = nullptr);
+    ~Workbook() override;
+
+    const WorkbookContents &contents() const { return m_contents; }
+    const tailwise::PriceHistory &prices() const { return m_contents.prices; }
+    const tailwise::Holdings &holdings() const { return m_contents.holdings; }
+    const tailwise::Assumptions &assumptions() const { return m_contents.assumptions; }
+    QString title() const { return m_contents.title; }
+    bool hasPrices() const { return m_contents.prices.dayCount() > 0; }
+
+    QUndoStack *undoStack() const { return m_undo; }
+    QString filePath() const { return m_filePath; }
+    void setFilePath(const QString &path);
+    // Unsaved changes: the undo stack is away from its clean state (or contents were reset
+    // from something that is not a file).
+    bool isModified() const;
+    void markSaved(const QString &path);
+
+    // The latest results. Exactly one of report()/resultError() is set once a computation has
+    // finished; both are empty before the first one.
+    const std::optional<tailwise::RiskReport> &report() const { return m_report; }
+    const std::optional<tailwise::Error> &resultError() const { return m_error; }
+    bool isComputing() const { return m_computing; }
+    // Incremented whenever an input changes; a result computed from older inputs is stale.
+    quint64 inputGeneration() const { return m_generation; }
+
+    // Replaces everything (open, new). Clears the undo stack. `fromFile` is empty for a new
+    // document.
+    void resetContents(WorkbookContents contents, const QString &fromFile);
+
+    // --- Mutators for undo commands (commands.cpp) only. ---
+    void applyHolding(int row, const tailwise::Holding &holding);
+    void applyInsertHoldings(int row, const tailwise::Holdings &holdings);
+    void applyRemoveHoldings(int row, int count);
+    void applyHoldings(const tailwise::Holdings &holdings);
+    void applyAssumptions(const tailwise::Assumptions &assumptions);
+    void applyPrices(const tailwise::PriceHistory &prices);
+    void applyTitle(const QString &title);
+
+    // --- For the scheduler. ---
+    void setComputing(bool computing);
+    // Ignored when `generation` is older than inputGeneration() (a stale result is never shown).
+    void publishResult(quint64 generation, tailwise::Result<tailwise::RiskReport> result);
+
+signals:
+    void pricesChanged();
+    void holdingEdited(int row);
+    void holdingsAboutToBeInserted(int first, int count);
+    void holdingsInserted();
+    void holdingsAboutToBeRemoved(int first, int count);
+    void holdingsRemoved();
+    void holdingsAboutToBeReset();
+    void holdingsReset();
+    void assumptionsChanged();
+    void titleChanged();
+    void contentsReset();      // after resetContents(): everything changed
+    void inputsChanged();      // after any of the above: the scheduler listens to this one
+    void resultsChanged();
+    void computingChanged(bool computing);
+    void filePathChanged();
+    void modifiedChanged(bool modified);
+
+private:
+    void inputsTouched();
+
+    WorkbookContents m_contents;
+    QUndoStack *m_undo = nullptr;
+    QString m_filePath;
+    bool m_unsavedWithoutUndo = false; // contents that came from no file (e.g. "New" with data)
+    std::optional<tailwise::RiskReport> m_report;
+    std::optional<tailwise::Error> m_error;
+    bool m_computing = false;
+    quint64 m_generation = 0;
+};
+
+} // namespace tailwise::ui
