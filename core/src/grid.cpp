@@ -22,4 +22,15 @@ RiskGrid normalRiskGrid(HorizonMoments oneDay, std::vector<int> horizons, std::v
     return grid;
 }
 
+std::optional<double> normalVarTurningHorizon(HorizonMoments oneDay, double confidence)
+{
+    if (!(oneDay.mean > 0.0) || !(oneDay.sd > 0.0) || !(confidence > 0.5 && confidence < 1.0))
+        return std::nullopt;
+    const double root = normalQuantile(confidence) * oneDay.sd / (2.0 * oneDay.mean);
+    const double h = root * root;
+    if (!std::isfinite(h))
+        return std::nullopt;
+    return h;
+}
+
 } // namespace tailwise

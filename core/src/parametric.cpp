@@ -26,6 +26,18 @@ VarEs normalVarEs(HorizonMoments m, double confidence)
     return VarEs{normalQuantile(confidence) * m.sd - m.mean, normalTailMeanFactor(confidence) * m.sd - m.mean};
 }
 
+double normalPnlDensity(HorizonMoments m, double pnl)
+{
+    assert(m.sd > 0.0);
+    return boost::math::pdf(boost::math::normal(m.mean, m.sd), pnl);
+}
+
+double normalPnlProbabilityBelow(HorizonMoments m, double pnl)
+{
+    assert(m.sd > 0.0);
+    return boost::math::cdf(boost::math::normal(m.mean, m.sd), pnl);
+}
+
 Result<HorizonMoments> singlePositionMoments(const SinglePosition &p, int horizonDays, int daysPerYear)
 {
     if (!std::isfinite(p.value))

@@ -7,6 +7,7 @@
 
 #include "tailwise/parametric.h"
 
+#include <optional>
 #include <vector>
 
 namespace tailwise {
@@ -23,5 +24,12 @@ struct RiskGrid {
 
 RiskGrid normalRiskGrid(HorizonMoments oneDay, std::vector<int> horizons,
                         std::vector<double> confidences);
+
+// The horizon where normal VaR stops growing: ∂VaR/∂H = z σ_1 / (2√H) − μ_1 = 0 gives
+//   H* = (z σ_1 / (2 μ_1))²,  z = Φ⁻¹(C),
+// in trading days (not rounded). Beyond H* the expected gain H μ_1 outgrows the z √H σ_1 term
+// and VaR falls. Defined only for an expected gain (μ_1 > 0) and a spread (σ_1 > 0) at C > 0.5;
+// otherwise nullopt (VaR then grows with H for ever). Follows from the cell formula above.
+std::optional<double> normalVarTurningHorizon(HorizonMoments oneDay, double confidence);
 
 } // namespace tailwise

@@ -34,6 +34,14 @@ struct VarEs {
 
 VarEs normalVarEs(HorizonMoments moments, double confidence);
 
+// The model's horizon P&L distribution N(μ_h, σ_h²), for drawing and read-outs (money in, money
+// or probability out). Precondition σ_h > 0: with no spread there is no density to draw.
+//   density:          φ((x − μ_h)/σ_h) / σ_h
+//   probabilityBelow: P(P&L < x) = Φ((x − μ_h)/σ_h); the lower tail read directly, which keeps
+//                     its accuracy far into the loss tail (Boost.Math cdf).
+double normalPnlDensity(HorizonMoments moments, double pnl);
+double normalPnlProbabilityBelow(HorizonMoments moments, double pnl);
+
 struct SinglePosition {
     double value = 0.0;            // V, money
     double annualVolatility = 0.0; // S, fraction per year, ≥ 0
