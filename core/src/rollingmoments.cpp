@@ -6,6 +6,11 @@
 
 namespace tailwise {
 
+namespace {
+// Recompute when the state's trace falls below this share of its peak since the last exact fit.
+constexpr double shrinkLimit = 1e-3;
+} // namespace
+
 RollingMoments::RollingMoments(const Eigen::MatrixXd &returns, int window, CovarianceEstimator estimator,
                                double lambda, MeanModel mean, int resyncEvery)
     : m_returns(&returns), m_window(window), m_estimator(estimator), m_lambda(lambda),
@@ -48,6 +53,7 @@ void RollingMoments::recompute()
         m_state.selfadjointView<Eigen::Lower>().rankUpdate(centred.transpose(), 1.0);
     }
     m_sinceResync = 0;
+    m_peakSize = m_state.diagonal().sum();
 }
 
 void RollingMoments::advance()
@@ -77,6 +83,14 @@ void RollingMoments::advance()
     if (m_estimator == CovarianceEstimator::Sample)
         m_state.selfadjointView<Eigen::Lower>().rankUpdate(m_work, (w - 1.0) / w);
     m_mean += m_work / w;
+
+    // Rounding in the updates is relative to the largest state seen since the last exact
+    // computation; when the state has since shrunk by orders of magnitude (a wild spell has left
+    // the window), that error would dominate, so recompute.
+    const double size = m_state.diagonal().sum();
+    m_peakSize = std::max(m_peakSize, size);
+    if (size < shrinkLimit * m_peakSize)
+        recompute();
 }
 
 double RollingMoments::portfolioVariance(const Eigen::VectorXd &exposures) const

@@ -10,8 +10,11 @@
 // (B. P. Welford 1962, "Note on a method for calculating corrected sums of squares and products",
 // Technometrics 4(3), 419–420 (mem), run in both directions; the removal step is its exact inverse.)
 // Working about the running mean keeps the cancellation small; rounding still accumulates slowly
-// in the removal step, so the state is recomputed exactly from the window every `resyncEvery`
-// steps (by default every max(W, 250) steps, at most doubling the cost of the updates).
+// in the removal step, in proportion to the largest state seen since the last exact computation.
+// So the state is recomputed exactly from the window every `resyncEvery` steps (by default every
+// max(W, 250) steps, at most doubling the cost of the updates), and at once when its trace has
+// fallen below 1/1000 of that largest value (a wild spell has left the window), where the
+// accumulated rounding would otherwise be large relative to the small estimate.
 //
 // Finite-window EWMA (estimate.h): with the unnormalised sum S_t = Σ_{k=0}^{W−1} λ^k r_{t−k} r_{t−k}ᵀ,
 //   S_{t+1} = λ S_t + r_{t+1} r_{t+1}ᵀ − λ^W r_{t+1−W} r_{t+1−W}ᵀ,   Σ = (1−λ)/(1−λ^W) · S,
@@ -73,6 +76,7 @@ private:
     int m_resyncEvery;
     int m_start = 0;
     int m_sinceResync = 0;
+    double m_peakSize = 0.0; // largest trace of the state since the last exact computation
     Eigen::VectorXd m_mean;
     Eigen::VectorXd m_zero;
     Eigen::MatrixXd m_state; // M (sample) or S (EWMA); lower triangle valid
