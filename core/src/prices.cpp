@@ -184,7 +184,16 @@ Result<PriceHistory> parsePriceCsv(std::string_view text, const std::string &sou
         for (std::size_t a = 0; a < n; ++a) {
             double v = values[(r + firstFullRow) * n + a];
             if (std::isnan(v)) {
-                v = history.prices(static_cast<Eigen::Index>(r) - 1, static_cast<Eigen::Index>(a));
+                if (r > 0) {
+                    v = history.prices(static_cast<Eigen::Index>(r) - 1, static_cast<Eigen::Index>(a));
+                } else {
+                    // A gap on the first kept row: this asset's previous price lies on a dropped
+                    // row (it had one before firstFullRow, or firstFullRow would be later).
+                    std::size_t back = firstFullRow;
+                    while (std::isnan(values[(back - 1) * n + a]))
+                        --back;
+                    v = values[(back - 1) * n + a];
+                }
                 ++filled;
             }
             history.prices(static_cast<Eigen::Index>(r), static_cast<Eigen::Index>(a)) = v;
