@@ -55,6 +55,7 @@ private slots:
     void christoffersenDegenerate();
     void baselTable_data();
     void baselTable();
+    void zoneOnFewDays();
 };
 
 void TestCoverageTests::kupiecRegions_data()
@@ -259,6 +260,20 @@ void TestCoverageTests::baselTable()
         TW_CLOSE_REL(z.cumulativeProbability, cumulative, 1e-9);
     if (k == 9) // P(X ≥ 10) = binom.sf(9, 250, 0.01) = 0.000250190 (REFERENCE-VALUES.md §8, SciPy)
         TW_CLOSE_REL(z.upperTail, 0.000250190, 1e-5);
+}
+
+void TestCoverageTests::zoneOnFewDays()
+{
+    // Convention of coveragetests.h: no exception is green even where (1−p)^T ≥ 95%
+    // (T = 2, p = 0.01: (0.99)^2 = 0.9801 by the binomial definition of Basel Committee 1996).
+    const ZoneResult none = trafficLightZone(0, 2, 0.01);
+    TW_CLOSE_REL(none.cumulativeProbability, 0.9801, 1e-12);
+    QCOMPARE(none.zone, Zone::Green);
+    // One exception in 3 days at 1%: P(X > 1) = 3p²(1−p) + p³ = 0.000298 (binomial algebra),
+    // between 0.0001 and 0.05, so yellow.
+    const ZoneResult one = trafficLightZone(1, 3, 0.01);
+    TW_CLOSE_REL(one.upperTail, 0.000298, 1e-9);
+    QCOMPARE(one.zone, Zone::Yellow);
 }
 
 QTEST_APPLESS_MAIN(TestCoverageTests)
