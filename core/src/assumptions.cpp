@@ -36,13 +36,31 @@ Status validate(const Assumptions &a)
     if (!(a.lambda > 0.0 && a.lambda < 1.0))
         return fieldError(ErrorKind::Assumption, "lambda",
                           "expected a decay strictly between 0 and 1 (e.g. 0.94), found " + show(a.lambda));
+    if (a.dof.kind == DegreesOfFreedom::Kind::Given && !(a.dof.value > 2.0 && a.dof.value <= 1e6))
+        return fieldError(ErrorKind::Assumption, "dof",
+                          "expected degrees of freedom greater than 2 and at most 1000000 (the t variance is "
+                          "infinite at 2 or below), or 'fit', found " + show(a.dof.value));
+    if (a.simulations < 1000 || a.simulations > 10000000)
+        return fieldError(ErrorKind::Assumption, "simulations",
+                          "expected between 1000 and 10000000 draws, found " + std::to_string(a.simulations));
     return Done{};
 }
 
 std::string_view toName(ReturnType v) { return v == ReturnType::Simple ? "simple" : "log"; }
 std::string_view toName(CovarianceEstimator v) { return v == CovarianceEstimator::Sample ? "sample" : "ewma"; }
 std::string_view toName(MeanModel v) { return v == MeanModel::Zero ? "zero" : "sample"; }
-std::string_view toName(RiskModel) { return "normal"; }
+std::string_view toName(RiskModel v)
+{
+    switch (v) {
+    case RiskModel::Normal: return "normal";
+    case RiskModel::StudentT: return "student-t";
+    case RiskModel::CornishFisher: return "cornish-fisher";
+    case RiskModel::Historical: return "historical";
+    case RiskModel::MonteCarlo: return "monte-carlo";
+    }
+    return "normal";
+}
+std::string_view toName(HistoricalHorizon v) { return v == HistoricalHorizon::SquareRoot ? "sqrt" : "overlapping"; }
 
 std::optional<ReturnType> parseReturnType(std::string_view n)
 {
@@ -65,6 +83,16 @@ std::optional<MeanModel> parseMeanModel(std::string_view n)
 std::optional<RiskModel> parseRiskModel(std::string_view n)
 {
     if (n == "normal") return RiskModel::Normal;
+    if (n == "student-t") return RiskModel::StudentT;
+    if (n == "cornish-fisher") return RiskModel::CornishFisher;
+    if (n == "historical") return RiskModel::Historical;
+    if (n == "monte-carlo") return RiskModel::MonteCarlo;
+    return std::nullopt;
+}
+std::optional<HistoricalHorizon> parseHistoricalHorizon(std::string_view n)
+{
+    if (n == "sqrt") return HistoricalHorizon::SquareRoot;
+    if (n == "overlapping") return HistoricalHorizon::Overlapping;
     return std::nullopt;
 }
 

@@ -1,9 +1,14 @@
 #include "tailwise/risk.h"
 
+#include "tailwise/cornishfisher.h"
 #include "tailwise/estimate.h"
+#include "tailwise/historical.h"
 #include "tailwise/returns.h"
+#include "tailwise/simulate.h"
+#include "tailwise/studentt.h"
 
 #include <cmath>
+#include <span>
 
 namespace tailwise {
 
@@ -21,12 +26,8 @@ void fillFigures(RiskReport &report, const Eigen::VectorXd &exposures, const Eig
     report.oneDay = HorizonMoments{exposures.dot(mean), std::sqrt(variance)};
     report.horizon = HorizonMoments{h * report.oneDay.mean, std::sqrt(h) * report.oneDay.sd};
     report.figures = normalVarEs(report.horizon, a.confidence);
-    if (report.portfolioValue != 0.0) {
-        report.varFraction = report.figures.var / report.portfolioValue;
-        report.esFraction = report.figures.es / report.portfolioValue;
-    } else {
+    if (report.portfolioValue == 0.0)
         report.warnings.push_back("the portfolio's net value is zero: VaR and ES cannot be given as a share of it");
-    }
     if (report.oneDay.sd == 0.0)
         report.warnings.push_back("the portfolio's P&L has zero variance over the window: VaR reflects the mean only");
 
@@ -48,14 +49,149 @@ void fillFigures(RiskReport &report, const Eigen::VectorXd &exposures, const Eig
         hr.standaloneVar = c.standaloneVar(k);
         hr.standaloneEs = c.standaloneEs(k);
     }
+}
+
+// Fractions and the sign warning, from whichever model gave the figures.
+void finishFigures(RiskReport &report)
+{
+    if (report.portfolioValue != 0.0) {
+        report.varFraction = report.figures.var / report.portfolioValue;
+        report.esFraction = report.figures.es / report.portfolioValue;
+    }
     if (report.figures.var <= 0.0)
         report.warnings.push_back("the expected gain over the horizon exceeds the loss quantile: VaR is zero or negative "
                                   "(no loss is expected at this confidence)");
 }
 
+void appendWarnings(RiskReport &report, const Warnings &more)
+{
+    report.warnings.insert(report.warnings.end(), more.begin(), more.end());
+}
+
+// The P&L shape, or a warning saying why the model falls back to normal.
+std::optional<Shape> pnlShape(RiskReport &report, const char *modelName)
+{
+    const Eigen::VectorXd pnl = dailyPnl(report.windowReturnsMatrix, report.exposures);
+    auto shape = momentShape(std::span<const double>(pnl.data(), static_cast<std::size_t>(pnl.size())));
+    if (!shape)
+        report.warnings.push_back(std::string("the window's daily P&L has no spread, so its skewness and kurtosis are "
+                                              "not defined: the ") + modelName + " model falls back to the normal model");
+    return shape;
+}
+
+// ν for the t model or the t draws: given, fitted by moments, or none (normal) with a warning.
+std::optional<double> chooseDof(RiskReport &report, const char *modelName)
+{
+    const auto &dof = report.assumptions.dof;
+    if (dof.kind == DegreesOfFreedom::Kind::Given)
+        return dof.value;
+    auto shape = pnlShape(report, modelName);
+    if (!shape)
+        return std::nullopt;
+    report.model.shape = shape;
+    const auto nu = fitDofByKurtosis(shape->excessKurtosis);
+    if (!nu) {
+        report.warnings.push_back("the window's daily P&L has an excess kurtosis of " + std::to_string(shape->excessKurtosis)
+                                  + " (not above zero), so no Student-t fits it by moments: the " + modelName
+                                  + " model uses the normal instead");
+        return std::nullopt;
+    }
+    report.model.dofFitted = true;
+    return nu;
+}
+
+Error needsHistory(RiskModel model)
+{
+    return fieldError(ErrorKind::Assumption, "model",
+                      "the " + std::string(toName(model)) + " model needs a price history (daily P&L), which the "
+                      "single-position mode does not have");
+}
+
+// Replaces the normal figures of `report` with those of the chosen model.
+Status applyModel(RiskReport &report, const RunControl &control)
+{
+    const auto &a = report.assumptions;
+    report.model = ModelDetails{};
+    const bool haveHistory = report.windowReturnsMatrix.rows() > 0;
+    switch (a.model) {
+    case RiskModel::Normal:
+        break;
+    case RiskModel::StudentT: {
+        if (!haveHistory && a.dof.kind != DegreesOfFreedom::Kind::Given)
+            return needsHistory(a.model);
+        const auto nu = chooseDof(report, "student-t");
+        if (!nu)
+            break;
+        report.model.used = RiskModel::StudentT;
+        report.model.dof = nu;
+        report.figures = studentTVarEs(report.horizon, *nu, a.confidence);
+        break;
+    }
+    case RiskModel::CornishFisher: {
+        if (!haveHistory)
+            return needsHistory(a.model);
+        const auto shape = pnlShape(report, "cornish-fisher");
+        if (!shape)
+            break;
+        report.model.used = RiskModel::CornishFisher;
+        report.model.shape = shape;
+        const CornishFisherFactors f = cornishFisherFactors(a.confidence, *shape);
+        report.model.cornishFisherMonotone = f.monotone;
+        report.figures = VarEs{f.var * report.horizon.sd - report.horizon.mean, f.es * report.horizon.sd - report.horizon.mean};
+        if (!f.monotone)
+            report.warnings.push_back("the Cornish-Fisher expansion is not monotone for skewness " + std::to_string(shape->skewness)
+                                      + " and excess kurtosis " + std::to_string(shape->excessKurtosis)
+                                      + ": it is no longer a quantile function, and its VaR and ES are unreliable");
+        break;
+    }
+    case RiskModel::Historical: {
+        if (!haveHistory)
+            return needsHistory(a.model);
+        const Eigen::VectorXd pnl = dailyPnl(report.windowReturnsMatrix, report.exposures);
+        auto hs = historicalVarEs(pnl, a.horizonDays, a.confidence, a.historicalHorizon);
+        if (!hs)
+            return hs.error();
+        report.model.used = RiskModel::Historical;
+        report.model.scenarios = hs.value().scenarios;
+        report.figures = hs.value().figures;
+        appendWarnings(report, hs.value().warnings);
+        break;
+    }
+    case RiskModel::MonteCarlo: {
+        SimulationSettings settings{a.simulations, a.seed, std::nullopt};
+        if (a.dof.kind != DegreesOfFreedom::Kind::Unset) {
+            if (!haveHistory && a.dof.kind == DegreesOfFreedom::Kind::Fit)
+                return needsHistory(a.model);
+            settings.dof = chooseDof(report, "monte-carlo");
+            report.model.dof = settings.dof;
+        }
+        auto mc = simulateVarEs(report.exposures, report.moments.covariance, report.moments.mean, a.horizonDays,
+                                a.confidence, settings, control);
+        if (!mc)
+            return mc.error();
+        report.model.used = RiskModel::MonteCarlo;
+        report.model.simulations = mc.value().simulations;
+        report.model.seed = a.seed;
+        report.model.varStandardError = mc.value().varStandardError;
+        report.model.esStandardError = mc.value().esStandardError;
+        report.model.standardErrorMethod = mc.value().standardErrorMethod;
+        report.figures = mc.value().figures;
+        appendWarnings(report, mc.value().warnings);
+        break;
+    }
+    }
+    return Done{};
+}
+
 } // namespace
 
 Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdings, const Assumptions &assumptions)
+{
+    return computeRisk(prices, holdings, assumptions, RunControl{});
+}
+
+Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdings, const Assumptions &assumptions,
+                               const RunControl &control)
 {
     if (auto ok = validate(assumptions); !ok)
         return ok.error();
@@ -94,10 +230,19 @@ Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdi
     report.warnings.insert(report.warnings.end(), report.moments.warnings.begin(), report.moments.warnings.end());
     fillFigures(report, exposures, report.moments.covariance, report.moments.mean);
     report.windowReturnsMatrix = std::move(held);
+    if (auto ok = applyModel(report, control); !ok)
+        return ok.error();
+    finishFigures(report);
     return report;
 }
 
 Result<RiskReport> computeSinglePositionRisk(const SinglePosition &position, const Assumptions &assumptions)
+{
+    return computeSinglePositionRisk(position, assumptions, RunControl{});
+}
+
+Result<RiskReport> computeSinglePositionRisk(const SinglePosition &position, const Assumptions &assumptions,
+                                             const RunControl &control)
 {
     if (auto ok = validate(assumptions); !ok)
         return ok.error();
@@ -120,6 +265,9 @@ Result<RiskReport> computeSinglePositionRisk(const SinglePosition &position, con
     report.moments.covariance = cov;
     report.moments.mean = mean;
     fillFigures(report, e, cov, mean);
+    if (auto ok = applyModel(report, control); !ok)
+        return ok.error();
+    finishFigures(report);
     return report;
 }
 

@@ -6,6 +6,7 @@
 
 #include "tailwise/result.h"
 
+#include <cstdint>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -15,7 +16,24 @@ namespace tailwise {
 enum class ReturnType { Simple, Log };       // r = P_t/P_{t-1} − 1, or ln(P_t/P_{t-1})
 enum class CovarianceEstimator { Sample, Ewma };
 enum class MeanModel { Zero, Sample };       // daily mean taken as zero, or estimated
-enum class RiskModel { Normal };             // later models extend this
+// normal: parametric.h; student-t: studentt.h; cornish-fisher: cornishfisher.h;
+// historical: historical.h; monte-carlo: simulate.h.
+enum class RiskModel { Normal, StudentT, CornishFisher, Historical, MonteCarlo };
+// How historical simulation reaches an H-day horizon: √H times the one-day figures, or from the
+// sums of H consecutive daily P&L (historical.h).
+enum class HistoricalHorizon { SquareRoot, Overlapping };
+
+// Degrees of freedom ν of the Student-t model and of Monte Carlo's t draws: unset (Student-t fits
+// ν by moments, Monte Carlo draws normal), a given ν > 2, or fitted by moments (studentt.h).
+struct DegreesOfFreedom {
+    enum class Kind { Unset, Given, Fit };
+    Kind kind = Kind::Unset;
+    double value = 0.0; // ν when kind == Given
+
+    static DegreesOfFreedom given(double nu) { return {Kind::Given, nu}; }
+    static DegreesOfFreedom fit() { return {Kind::Fit, 0.0}; }
+    friend bool operator==(const DegreesOfFreedom &, const DegreesOfFreedom &) = default;
+};
 
 struct Assumptions {
     double confidence = 0.99;      // C, 0 < C < 1
@@ -27,6 +45,10 @@ struct Assumptions {
     double lambda = 0.94;          // EWMA decay, 0 < λ < 1
     MeanModel mean = MeanModel::Zero;
     RiskModel model = RiskModel::Normal;
+    DegreesOfFreedom dof;                                      // student-t, monte-carlo
+    HistoricalHorizon historicalHorizon = HistoricalHorizon::SquareRoot; // historical
+    int simulations = 100000;                                  // monte-carlo draws, 1000 … 10,000,000
+    std::uint64_t seed = 1;                                    // monte-carlo: same seed → same figures
 };
 
 Status validate(const Assumptions &assumptions);
@@ -36,10 +58,12 @@ std::string_view toName(ReturnType value);
 std::string_view toName(CovarianceEstimator value);
 std::string_view toName(MeanModel value);
 std::string_view toName(RiskModel value);
+std::string_view toName(HistoricalHorizon value); // "sqrt", "overlapping"
 std::optional<ReturnType> parseReturnType(std::string_view name);
 std::optional<CovarianceEstimator> parseEstimator(std::string_view name);
 std::optional<MeanModel> parseMeanModel(std::string_view name);
 std::optional<RiskModel> parseRiskModel(std::string_view name);
+std::optional<HistoricalHorizon> parseHistoricalHorizon(std::string_view name);
 
 // The EWMA's effective number of days, 1/(1−λ): the mean age weighting of its observations
 // plus one (common practice as a read-out of λ; e.g. λ = 0.94 → about 16.7 days).

@@ -4,6 +4,14 @@
 // (estimate.h), exposures (holdings.h), horizon moments σ_h = √H √(eᵀΣe), μ_h = H Σ e_i μ_i,
 // VaR and ES (parametric.h), contributions (contributions.h). Fractions are of V = Σ e_i and are
 // absent (nullopt) when V = 0, since a share of nothing is not defined.
+//
+// The model (Assumptions::model) chooses how VaR and ES are computed: normal (parametric.h),
+// student-t (studentt.h), cornish-fisher (cornishfisher.h), historical (historical.h) or
+// monte-carlo (simulate.h). σ_h and μ_h are always the covariance-based horizon moments above; the
+// contributions are always the normal model's Euler allocation (ModelDetails::contributions says
+// so), since the other models have no allocation defined here. Student-t with ν fitted, or
+// Cornish–Fisher, fall back to the normal model with a warning when the P&L's shape cannot be
+// estimated or has no excess kurtosis; ModelDetails::used names the model that gave the figures.
 #pragma once
 
 #include "tailwise/assumptions.h"
@@ -13,9 +21,12 @@
 #include "tailwise/parametric.h"
 #include "tailwise/prices.h"
 #include "tailwise/result.h"
+#include "tailwise/runcontrol.h"
+#include "tailwise/shape.h"
 
 #include <Eigen/Core>
 
+#include <cstdint>
 #include <optional>
 #include <string>
 #include <vector>
@@ -37,6 +48,22 @@ struct HoldingRisk {
     double standaloneEs = 0.0;
 };
 
+// What the model used, beyond the figures. Fields a model does not use stay empty.
+struct ModelDetails {
+    RiskModel used = RiskModel::Normal;          // after any fallback
+    RiskModel contributions = RiskModel::Normal; // the model the contributions follow
+    std::optional<double> dof;                   // ν (student-t; monte-carlo with t draws)
+    bool dofFitted = false;                      // ν came from the moment fit
+    std::optional<Shape> shape;                  // S, K of the daily P&L (cornish-fisher, t fit)
+    std::optional<bool> cornishFisherMonotone;
+    std::optional<double> varStandardError;      // monte-carlo, money
+    std::optional<double> esStandardError;       // monte-carlo, money
+    std::string standardErrorMethod;
+    int simulations = 0;                         // monte-carlo
+    std::optional<std::uint64_t> seed;           // monte-carlo
+    int scenarios = 0;                           // historical: losses the quantile was taken over
+};
+
 struct RiskReport {
     Assumptions assumptions;
     double portfolioValue = 0.0;
@@ -55,14 +82,23 @@ struct RiskReport {
     Eigen::VectorXd exposures;
     Eigen::MatrixXd windowReturnsMatrix; // the window's daily returns (for histograms, tests)
     Moments moments;
+    ModelDetails model;
     Warnings warnings;
 };
 
 Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdings,
                                const Assumptions &assumptions);
+// The same with cancellation, progress and a thread count (only monte-carlo uses them; run it off
+// the GUI thread). Errors additionally: Cancelled.
+Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdings,
+                               const Assumptions &assumptions, const RunControl &control);
 
 // The single-position mode of the CLI: one holding of value V with annual volatility and drift.
+// Models that need the P&L history (historical, cornish-fisher, student-t with ν fitted) are
+// refused here with an Assumption error naming "model".
 Result<RiskReport> computeSinglePositionRisk(const SinglePosition &position,
                                              const Assumptions &assumptions);
+Result<RiskReport> computeSinglePositionRisk(const SinglePosition &position,
+                                             const Assumptions &assumptions, const RunControl &control);
 
 } // namespace tailwise

@@ -1,0 +1,180 @@
+#include "tailwise/stress.h"
+
+#include "csvtext.h"
+
+#include "tailwise/returns.h"
+
+#include <algorithm>
+#include <numeric>
+#include <unordered_map>
+
+namespace tailwise {
+
+namespace {
+
+std::string lower(std::string_view s)
+{
+    std::string out(s);
+    for (char &c : out)
+        if (c >= 'A' && c <= 'Z')
+            c = static_cast<char>(c - 'A' + 'a');
+    return out;
+}
+
+std::string stem(const std::string &path)
+{
+    const std::size_t slash = path.find_last_of("/\\");
+    std::string name = slash == std::string::npos ? path : path.substr(slash + 1);
+    const std::size_t dot = name.find_last_of('.');
+    if (dot != std::string::npos && dot > 0)
+        name = name.substr(0, dot);
+    return name;
+}
+
+} // namespace
+
+Result<StressScenario> parseScenarioCsv(std::string_view text, const std::string &source, std::string name,
+                                        const PriceHistory *prices)
+{
+    constexpr std::size_t maxLine = 64 * 1024;
+    constexpr std::size_t maxRows = 100000;
+    csv::LineReader lines(text);
+    std::string_view line;
+    bool haveHeader = false;
+    while (lines.next(line)) {
+        if (line.size() > maxLine)
+            return fileError(ErrorKind::Format, source, lines.lineNumber(), 0, "the line is longer than the limit of 64 KiB");
+        if (!line.empty()) {
+            haveHeader = true;
+            break;
+        }
+    }
+    if (!haveHeader)
+        return fileError(ErrorKind::Format, source, 0, 0, "the file is empty: expected a header 'asset,shock'");
+    const int headerLine = lines.lineNumber();
+    auto header = csv::splitLine(line, source, headerLine);
+    if (!header)
+        return header.error();
+    int assetCol = -1, shockCol = -1;
+    for (const auto &cell : header.value()) {
+        const std::string col = lower(cell.value());
+        int *slot = col == "asset" ? &assetCol : col == "shock" ? &shockCol : nullptr;
+        if (!slot)
+            return fileError(ErrorKind::Format, source, headerLine, cell.column,
+                             "unknown column " + csv::quoteForMessage(cell.value()) + ": expected asset and shock");
+        if (*slot >= 0)
+            return fileError(ErrorKind::Format, source, headerLine, cell.column, "the column '" + col + "' appears twice");
+        *slot = cell.column - 1;
+    }
+    if (assetCol < 0 || shockCol < 0)
+        return fileError(ErrorKind::Format, source, headerLine, 0, "expected the columns 'asset' and 'shock'");
+    const std::size_t columns = header.value().size();
+
+    StressScenario scenario;
+    scenario.name = std::move(name);
+    std::unordered_map<std::string, int> firstLine;
+    while (lines.next(line)) {
+        const int lineNo = lines.lineNumber();
+        if (line.size() > maxLine)
+            return fileError(ErrorKind::Format, source, lineNo, 0, "the line is longer than the limit of 64 KiB");
+        if (line.empty())
+            continue;
+        if (scenario.shocks.size() >= maxRows)
+            return fileError(ErrorKind::Format, source, lineNo, 0, "more than 100000 shocks: over the limit");
+        auto split = csv::splitLine(line, source, lineNo);
+        if (!split)
+            return split.error();
+        const auto &cells = split.value();
+        if (cells.size() != columns)
+            return fileError(ErrorKind::Format, source, lineNo, static_cast<int>(std::min(cells.size(), columns)) + 1,
+                             "the row has " + std::to_string(cells.size()) + " cells, expected "
+                                 + std::to_string(columns) + " as in the header");
+        std::string asset(cells[static_cast<std::size_t>(assetCol)].value());
+        if (asset.empty())
+            return fileError(ErrorKind::Format, source, lineNo, assetCol + 1, "expected an asset name, found an empty cell");
+        if (prices && prices->assetIndex(asset) < 0)
+            return fileError(ErrorKind::Reference, source, lineNo, assetCol + 1,
+                             "the price history has no asset named \"" + asset + "\"");
+        if (const auto seen = firstLine.find(asset); seen != firstLine.end())
+            return fileError(ErrorKind::Reference, source, lineNo, assetCol + 1,
+                             "the asset \"" + asset + "\" is already shocked on line " + std::to_string(seen->second));
+        firstLine.emplace(asset, lineNo);
+        const auto shockText = cells[static_cast<std::size_t>(shockCol)].value();
+        const auto shock = csv::parseNumber(shockText);
+        if (!shock)
+            return fileError(ErrorKind::Value, source, lineNo, shockCol + 1,
+                             "expected a shock as a fraction (a finite number, e.g. -0.2 for a 20% fall), found "
+                                 + csv::quoteForMessage(shockText));
+        if (*shock <= -1.0)
+            return fileError(ErrorKind::Value, source, lineNo, shockCol + 1,
+                             "expected a shock above -1 (a price cannot fall by 100% or more), found " + std::string(shockText));
+        scenario.shocks.emplace_back(std::move(asset), *shock);
+    }
+    if (scenario.shocks.empty())
+        return fileError(ErrorKind::Format, source, headerLine, 0, "the scenario has no rows: expected asset,shock lines");
+    return scenario;
+}
+
+Result<StressScenario> readScenarioCsv(const std::string &path, const PriceHistory *prices)
+{
+    auto text = csv::readFileText(path, 64u * 1024u * 1024u);
+    if (!text)
+        return text.error();
+    return parseScenarioCsv(text.value(), path, stem(path), prices);
+}
+
+double scenarioPnl(const StressScenario &scenario, const PriceHistory &prices, const Holdings &holdings)
+{
+    double pnl = 0.0;
+    for (const auto &h : holdings)
+        for (const auto &[asset, shock] : scenario.shocks)
+            if (asset == h.asset)
+                pnl += holdingExposure(h, prices) * shock;
+    return pnl;
+}
+
+Result<std::vector<StressOutcome>> worstDays(const PriceHistory &prices, const Holdings &holdings,
+                                             const Assumptions &assumptions, int count)
+{
+    if (auto ok = checkHoldings(holdings, prices); !ok)
+        return ok.error();
+    auto window = selectWindow(prices, ReturnType::Simple, assumptions.window);
+    if (!window)
+        return window.error();
+    const Eigen::MatrixXd &r = window.value().returns;
+    Eigen::VectorXd pnl = Eigen::VectorXd::Zero(r.rows());
+    for (const auto &h : holdings)
+        pnl += holdingExposure(h, prices) * r.col(prices.assetIndex(h.asset));
+    // Row j of the window is the return ending on date dates[T − N + j].
+    const std::size_t firstDate = prices.dates.size() - static_cast<std::size_t>(r.rows());
+    std::vector<Eigen::Index> order(static_cast<std::size_t>(r.rows()));
+    std::iota(order.begin(), order.end(), Eigen::Index{0});
+    std::stable_sort(order.begin(), order.end(), [&](Eigen::Index a, Eigen::Index b) { return pnl(a) < pnl(b); });
+    std::vector<StressOutcome> out;
+    for (std::size_t k = 0; k < order.size() && static_cast<int>(k) < count; ++k) {
+        const Eigen::Index j = order[k];
+        out.push_back(StressOutcome{"worst day " + std::to_string(k + 1), pnl(j),
+                                    prices.dates[firstDate + static_cast<std::size_t>(j)]});
+    }
+    return out;
+}
+
+Result<std::vector<StressOutcome>> runStress(const PriceHistory &prices, const Holdings &holdings,
+                                             const Assumptions &assumptions,
+                                             const std::vector<StressScenario> &scenarios, int worstDayCount)
+{
+    if (auto ok = checkHoldings(holdings, prices); !ok)
+        return ok.error();
+    std::vector<StressOutcome> out;
+    for (const auto &s : scenarios)
+        out.push_back(StressOutcome{s.name, scenarioPnl(s, prices, holdings), std::nullopt});
+    if (worstDayCount > 0) {
+        auto worst = worstDays(prices, holdings, assumptions, worstDayCount);
+        if (!worst)
+            return worst.error();
+        out.insert(out.end(), worst.value().begin(), worst.value().end());
+    }
+    return out;
+}
+
+} // namespace tailwise
