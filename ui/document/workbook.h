@@ -9,6 +9,8 @@
 //   - RecomputeScheduler (recomputescheduler.h) computes results and calls publishResult().
 #pragma once
 
+#include "workbookcontents.h"
+
 #include "tailwise/assumptions.h"
 #include "tailwise/holdings.h"
 #include "tailwise/prices.h"
@@ -23,14 +25,6 @@
 class QUndoStack;
 
 namespace tailwise::ui {
-
-// Everything a workbook file stores.
-struct WorkbookContents {
-    QString title;                 // shown in the window title and on reports
-    tailwise::PriceHistory prices; // embedded: a workbook carries its own data
-    tailwise::Holdings holdings;
-    tailwise::Assumptions assumptions;
-};
 
 class Workbook : public QObject {
     Q_OBJECT

@@ -1,0 +1,69 @@
+// The workbook file: one analysis in one self-contained JSON file, extension `.tailwise`.
+//
+// Layout (format 1; JSON, UTF-8; keys are case-sensitive; unknown keys are ignored):
+//   {
+//     "kind": "tailwise-workbook",      what the file is: anything else is "not a workbook"
+//     "format": 1,                      the layout version; a larger one is refused (newer program)
+//     "title": "…",                     may be empty
+//     "prices": {                       the embedded daily price history
+//       "assets": ["A", "B", …],        non-empty, unique names
+//       "dates":  ["2024-01-02", …],    ISO dates, strictly increasing
+//       "rows":   [[p_A, p_B, …], …]    one row per date, one finite price > 0 per asset
+//     },                                (all three empty for a workbook with no data yet;
+//                                        otherwise at least 3 dates, as for a price CSV)
+//     "holdings": [                     in the order shown
+//       {"asset": "A", "quantity": 100, "price": 12.5, "value": 1000}
+//     ],                                quantity: units (negative = short), required unless
+//                                       `value` is given; price: optional override of the last
+//                                       close (> 0); value: optional money exposure, which
+//                                       replaces quantity × price when present
+//     "assumptions": {                  every field of tailwise::Assumptions, named as the
+//       "confidence": 0.99,             fields of validate() name them; all required:
+//       "horizon": 10, "days-per-year": 252, "window": 500 | "all",
+//       "returns": "simple" | "log", "estimator": "sample" | "ewma", "lambda": 0.94,
+//       "mean": "zero" | "sample", "model": "normal" | "student-t" | …,
+//       "dof": "unset" | "fit" | ν, "historical-horizon": "sqrt" | "overlapping",
+//       "simulations": 100000, "seed": "1"  (a decimal string: JSON numbers cannot carry all
+//                                            64 bits; a whole JSON number up to 2^53 is accepted)
+//     }
+//   }
+// Numbers are written in the shortest form that reads back to the same double, so a save →
+// load round trip is exact. A file is checked with the same rules as the CSV readers and the
+// assumption checks (checkHoldings, validate), and a refusal names the file and the place in it
+// as a JSON path with 0-based indices, e.g. "larchmere.tailwise: holdings[3].quantity: expected a
+// number, found a string (\"ten\")"; malformed JSON names the line, column and byte offset.
+//
+// Saving is atomic (QSaveFile: write a temporary file beside the target, then rename over it),
+// so a failed save leaves the previous file as it was. Contents that could not be read back
+// (a non-finite price, a holding of an unknown asset, an assumption out of range) are refused
+// before anything is written.
+//
+// QtCore only: the command line uses this without a display.
+#pragma once
+
+#include "workbookcontents.h"
+
+#include "tailwise/result.h"
+
+#include <QByteArray>
+#include <QString>
+
+namespace tailwise::ui {
+
+inline constexpr int workbookFormatVersion = 1;        // the layout this program writes and reads
+inline constexpr const char *workbookKind = "tailwise-workbook";
+inline constexpr const char *workbookSuffix = "tailwise"; // file name extension, without the dot
+inline constexpr const char *workbookMimeType = "application/x-tailwise-workbook";
+
+// Reads a workbook from JSON text; `sourceName` (a path, usually) starts every message and
+// becomes the price history's sourceName.
+tailwise::Result<WorkbookContents> parseWorkbookJson(const QByteArray &json, const QString &sourceName);
+// Reads a workbook file: refuses a missing file, a folder, an unreadable or oversized file.
+tailwise::Result<WorkbookContents> loadWorkbook(const QString &path);
+
+// The JSON text of a workbook, or the reason the contents cannot be stored (see above).
+tailwise::Result<QByteArray> workbookJson(const WorkbookContents &contents);
+// Writes atomically; on failure the message names the path and the previous file is intact.
+tailwise::Status saveWorkbook(const WorkbookContents &contents, const QString &path);
+
+} // namespace tailwise::ui
