@@ -1,5 +1,6 @@
 // tailwise-cli: the command line over the core. Thin: parse, call core, print.
 // Exit status: 0 success, 1 bad input data, 2 bad usage.
+#include "backtestcommand.h"
 #include "reportprint.h"
 #include "varoptions.h"
 
@@ -21,6 +22,7 @@ const char *topHelp = R"(tailwise-cli: Value-at-Risk and Expected Shortfall from
 
 Usage:
   tailwise-cli var [options]     risk figures of a portfolio (tailwise-cli var --help)
+  tailwise-cli backtest [options]  would the VaR have held up? (tailwise-cli backtest --help)
   tailwise-cli --help            this text
   tailwise-cli --version
 )";
@@ -90,5 +92,7 @@ int main(int argc, char **argv)
     }
     if (args[0] == "var")
         return runVar({args.begin() + 1, args.end()});
-    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var)");
+    if (args[0] == "backtest")
+        return tailwise::cli::runBacktestCommand({args.begin() + 1, args.end()});
+    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest)");
 }

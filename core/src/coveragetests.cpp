@@ -115,7 +115,9 @@ ZoneResult trafficLightZone(int exceptions, int observations, double tailProbabi
     z.cumulativeProbability = boost::math::cdf(binomial, static_cast<double>(exceptions));
     z.upperTail = boost::math::cdf(boost::math::complement(binomial, static_cast<double>(exceptions)));
     // F ≥ 0.95 ⟺ P(X > x) ≤ 0.05, and F ≥ 0.9999 ⟺ P(X > x) ≤ 0.0001 (see the header).
-    if (z.upperTail <= 1.0 - zoneRedFrom)
+    if (exceptions == 0)
+        z.zone = Zone::Green; // none is never evidence of too many (see the header)
+    else if (z.upperTail <= 1.0 - zoneRedFrom)
         z.zone = Zone::Red;
     else if (z.upperTail <= 1.0 - zoneYellowFrom)
         z.zone = Zone::Yellow;

@@ -118,7 +118,7 @@ def run(case, assets, dates, prices):
     lr_cc = lr_pof + lr_ind
     cum = float(stats.binom.cdf(x, t, tail))
     upper = float(stats.binom.sf(x, t, tail))
-    zone = "red" if upper <= 1 - 0.9999 else "yellow" if upper <= 1 - 0.95 else "green"
+    zone = "green" if x == 0 else "red" if upper <= 1 - 0.9999 else "yellow" if upper <= 1 - 0.95 else "green"
     margin = min(abs(-d[1] - d[2]) / max(abs(d[2]), 1e-300) for d in days)
     out = dict(case)
     out.update({

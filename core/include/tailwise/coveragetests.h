@@ -28,7 +28,8 @@
 //   green when F < 0.95, yellow when 0.95 ≤ F < 0.9999, red when F ≥ 0.9999.
 // For T = 250, p = 0.01 this gives the Committee's table: green 0–4, yellow 5–9, red 10 or more.
 // The comparison is made on the upper tail P(X > x) = 1 − F (Boost.Math's complement form), which
-// is the accurate side near 99.99%.
+// is the accurate side near 99.99%. The zones speak of too many exceptions, so x = 0 is green even
+// on so few days that (1−p)^T ≥ 95% (T ≤ 5 at p = 0.01), where the rule alone would say yellow.
 //
 // Preconditions (asserted, programmer errors): 0 < p < 1, 0 ≤ x ≤ T, T ≥ 1.
 #pragma once
