@@ -1,0 +1,202 @@
+#include "charts/contributionschart.h"
+
+#include "charts/chartstyle.h"
+#include "charts/localeticker.h"
+
+#include <qcustomplot.h>
+
+#include <QVBoxLayout>
+
+#include <cmath>
+
+namespace tailwise::ui {
+
+namespace {
+
+QCPTextElement *title(QCustomPlot *plot, const QString &text)
+{
+    auto *t = new QCPTextElement(plot, text);
+    QFont f = chartstyle::labelFont();
+    f.setBold(true);
+    t->setFont(f);
+    t->setTextColor(chartstyle::ink());
+    return t;
+}
+
+QCPItemText *valueText(QCustomPlot *plot, QCPAxisRect *rect, const QString &text, Qt::Alignment align)
+{
+    auto *t = new QCPItemText(plot);
+    t->setClipAxisRect(rect);
+    t->position->setAxes(rect->axis(QCPAxis::atBottom), rect->axis(QCPAxis::atLeft));
+    t->setText(text);
+    t->setFont(chartstyle::tickFont());
+    t->setColor(chartstyle::ink());
+    t->setPositionAlignment(align);
+    t->setPadding(QMargins(4, 0, 4, 0));
+    return t;
+}
+
+QString barText(const ContributionBar &bar)
+{
+    QString text = chartstyle::money(bar.componentVar);
+    if (bar.share)
+        text += QStringLiteral(" (") + chartstyle::percent(*bar.share, 0) + QStringLiteral(")");
+    return text;
+}
+
+} // namespace
+
+ContributionsChart::ContributionsChart(QWidget *parent) : QWidget(parent)
+{
+    auto *layout = new QVBoxLayout(this);
+    layout->setContentsMargins(0, 0, 0, 0);
+    m_plot = new QCustomPlot(this);
+    layout->addWidget(m_plot);
+    build();
+    setData(ContributionsChartData{});
+}
+
+void ContributionsChart::build()
+{
+    QCustomPlot *p = m_plot;
+    m_barsRect = p->axisRect();
+    m_stepRect = new QCPAxisRect(p);
+    p->plotLayout()->addElement(0, 1, m_stepRect);
+    p->plotLayout()->insertRow(0);
+    p->plotLayout()->addElement(0, 0, title(p, tr("Contribution of each holding to VaR")));
+    p->plotLayout()->addElement(0, 1, title(p, tr("Diversification")));
+    p->plotLayout()->setColumnStretchFactors({2.6, 1.0});
+    chartstyle::stylePlot(p);
+
+    // Bars run horizontally: holdings on the vertical (key) axis, money on the horizontal.
+    QCPAxis *names = m_barsRect->axis(QCPAxis::atLeft);
+    QCPAxis *money = m_barsRect->axis(QCPAxis::atBottom);
+    m_barsRect->axis(QCPAxis::atTop)->setVisible(false);
+    m_barsRect->axis(QCPAxis::atRight)->setVisible(false);
+    money->setTicker(QSharedPointer<QCPAxisTicker>(new LocaleTicker));
+    names->grid()->setVisible(false);
+    names->setTickLength(0, 0);
+    names->setSubTicks(false);
+    money->grid()->setZeroLinePen(QPen(chartstyle::ink(), 1));
+
+    m_adders = new QCPBars(names, money);
+    m_adders->setName(tr("Adds to VaR"));
+    m_adders->setBrush(chartstyle::slate());
+    m_adders->setPen(QPen(chartstyle::slate().darker(130), 1));
+    m_adders->setWidth(0.7);
+    m_hedges = new QCPBars(names, money);
+    m_hedges->setName(tr("Hedge (lowers VaR)"));
+    // Light and hatched: apart from the dark risk bars in colour, in greyscale and in print.
+    m_hedges->setBrush(QBrush(chartstyle::ochre()));
+    m_hedges->setPen(QPen(chartstyle::ochre().darker(150), 1.2));
+    m_hedges->setWidth(0.7);
+
+    p->legend->setVisible(true);
+    p->legend->setFont(chartstyle::tickFont());
+    m_barsRect->insetLayout()->addElement(p->legend, Qt::AlignBottom | Qt::AlignRight);
+
+    QCPAxis *stepKeys = m_stepRect->axis(QCPAxis::atBottom);
+    QCPAxis *stepMoney = m_stepRect->axis(QCPAxis::atLeft);
+    m_stepRect->axis(QCPAxis::atTop)->setVisible(false);
+    m_stepRect->axis(QCPAxis::atRight)->setVisible(false);
+    QSharedPointer<QCPAxisTickerText> stepTicker(new QCPAxisTickerText);
+    stepTicker->addTick(1, tr("Standalone\nsum"));
+    stepTicker->addTick(2, tr("Benefit"));
+    stepTicker->addTick(3, tr("Portfolio\nVaR"));
+    stepKeys->setTicker(stepTicker);
+    stepKeys->setRange(0.4, 3.6);
+    stepKeys->grid()->setVisible(false);
+    stepKeys->setTickLength(0, 0);
+    stepKeys->setSubTicks(false);
+    stepMoney->setTicker(QSharedPointer<QCPAxisTicker>(new LocaleTicker));
+    stepMoney->setLabel(tr("VaR (money)"));
+    m_stepBars = new QCPBars(stepKeys, stepMoney);
+    m_stepBars->setWidth(0.62);
+    m_stepBars->setBrush(chartstyle::slate());
+    m_stepBars->setPen(QPen(chartstyle::slate().darker(130), 1));
+    m_stepBars->removeFromLegend();
+    for (QCPAxis *axis : m_stepRect->axes())
+        chartstyle::styleAxis(axis);
+    for (QCPAxis *axis : m_barsRect->axes())
+        chartstyle::styleAxis(axis);
+    names->grid()->setVisible(false);
+    stepKeys->grid()->setVisible(false);
+}
+
+void ContributionsChart::setData(const ContributionsChartData &data)
+{
+    m_data = data;
+    m_plot->clearItems();
+    fillBars();
+    fillDiversification();
+    m_plot->replot(QCustomPlot::rpQueuedReplot);
+}
+
+void ContributionsChart::fillBars()
+{
+    QCPAxis *names = m_barsRect->axis(QCPAxis::atLeft);
+    QCPAxis *money = m_barsRect->axis(QCPAxis::atBottom);
+    const int n = static_cast<int>(m_data.bars.size());
+    QSharedPointer<QCPAxisTickerText> ticker(new QCPAxisTickerText);
+    QVector<double> addKeys, addValues, hedgeKeys, hedgeValues;
+    double lo = 0.0, hi = 0.0;
+    for (int i = 0; i < n; ++i) {
+        const ContributionBar &bar = m_data.bars[static_cast<std::size_t>(i)];
+        const double key = n - i; // the largest risk at the top
+        ticker->addTick(key, bar.asset);
+        (bar.hedge ? hedgeKeys : addKeys).push_back(key);
+        (bar.hedge ? hedgeValues : addValues).push_back(bar.componentVar);
+        lo = std::min(lo, bar.componentVar);
+        hi = std::max(hi, bar.componentVar);
+    }
+    names->setTicker(ticker);
+    names->setRange(0.4, n + 0.6);
+    m_adders->setData(addKeys, addValues, true);
+    m_hedges->setData(hedgeKeys, hedgeValues, true);
+    m_hedges->setVisible(true);
+
+    // Room on both sides for the value labels.
+    const double span = std::max(hi - lo, 1.0);
+    money->setRange(lo - (lo < 0.0 ? 0.28 * span : 0.02 * span), hi + 0.28 * span);
+    money->setLabel(m_data.valueLabel);
+    for (int i = 0; i < n; ++i) {
+        const ContributionBar &bar = m_data.bars[static_cast<std::size_t>(i)];
+        QCPItemText *t = valueText(m_plot, m_barsRect, barText(bar),
+                                   (bar.hedge ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
+        t->position->setCoords(bar.componentVar, n - i);
+    }
+}
+
+void ContributionsChart::fillDiversification()
+{
+    QCPAxis *keys = m_stepRect->axis(QCPAxis::atBottom);
+    QCPAxis *money = m_stepRect->axis(QCPAxis::atLeft);
+    const double whole = m_data.undiversifiedVar;
+    const double var = m_data.portfolioVar;
+    m_stepBars->setData(QVector<double>{1.0, 3.0}, QVector<double>{whole, var}, true);
+    const double top = std::max({whole, var, 1.0});
+    const double bottom = std::min({0.0, whole, var});
+    money->setRange(bottom, top * 1.15);
+
+    // The benefit as a floating step from the standalone sum down to the portfolio VaR.
+    auto *step = new QCPItemRect(m_plot);
+    step->setClipAxisRect(m_stepRect);
+    step->topLeft->setAxes(keys, money);
+    step->bottomRight->setAxes(keys, money);
+    step->topLeft->setCoords(2.0 - 0.31, std::max(whole, var));
+    step->bottomRight->setCoords(2.0 + 0.31, std::min(whole, var));
+    step->setPen(QPen(chartstyle::teal().darker(140), 1, Qt::DashLine));
+    step->setBrush(QBrush(chartstyle::teal().lighter(150), Qt::Dense4Pattern));
+
+    valueText(m_plot, m_stepRect, chartstyle::money(whole), Qt::AlignHCenter | Qt::AlignBottom)->position->setCoords(1.0, whole);
+    valueText(m_plot, m_stepRect, chartstyle::money(var), Qt::AlignHCenter | Qt::AlignBottom)->position->setCoords(3.0, var);
+    valueText(m_plot, m_stepRect, QLocale().negativeSign() + chartstyle::money(m_data.diversificationBenefit),
+              Qt::AlignHCenter | Qt::AlignBottom)
+        ->position->setCoords(2.0, std::max(whole, var));
+    QCPItemText *note = valueText(m_plot, m_stepRect, m_data.benefitText, Qt::AlignHCenter | Qt::AlignTop);
+    note->position->setTypeY(QCPItemPosition::ptAxisRectRatio);
+    note->position->setCoords(2.0, 0.01);
+    note->setFont(chartstyle::noteFont());
+}
+
+} // namespace tailwise::ui

@@ -1,0 +1,42 @@
+// The contributions view: component VaR per holding as sorted horizontal bars (hedges in their
+// own colour, with a legend entry) and, beside them, the diversification step from the sum of
+// standalone VaRs down to the portfolio VaR. Fed only by setData().
+#pragma once
+
+#include "charts/contributionschartdata.h"
+
+#include <QWidget>
+
+class QCustomPlot;
+class QCPAxisRect;
+class QCPBars;
+
+namespace tailwise::ui {
+
+class ContributionsChart : public QWidget {
+    Q_OBJECT
+public:
+    explicit ContributionsChart(QWidget *parent = nullptr);
+
+    void setData(const ContributionsChartData &data);
+    const ContributionsChartData &data() const { return m_data; }
+
+    QCustomPlot *plot() const { return m_plot; }
+
+    QSize sizeHint() const override { return {640, 360}; }
+
+private:
+    void build();
+    void fillBars();
+    void fillDiversification();
+
+    ContributionsChartData m_data;
+    QCustomPlot *m_plot = nullptr;
+    QCPAxisRect *m_barsRect = nullptr;
+    QCPAxisRect *m_stepRect = nullptr;
+    QCPBars *m_adders = nullptr;
+    QCPBars *m_hedges = nullptr;
+    QCPBars *m_stepBars = nullptr;
+};
+
+} // namespace tailwise::ui

@@ -1,0 +1,68 @@
+#include "charts/contributionschartdata.h"
+
+#include "charts/chartstyle.h"
+
+#include <QCoreApplication>
+
+#include <algorithm>
+#include <cmath>
+
+namespace tailwise::ui {
+
+namespace {
+QString tr(const char *text, int n = -1) { return QCoreApplication::translate("ContributionsChart", text, nullptr, n); }
+double finiteOr0(double v) { return std::isfinite(v) ? v : 0.0; }
+} // namespace
+
+ContributionsChartData buildContributionsChartData(const RiskReport &report, const ContributionsOptions &options)
+{
+    ContributionsChartData d;
+    d.portfolioVar = finiteOr0(report.figures.var);
+    d.undiversifiedVar = finiteOr0(report.undiversifiedVar);
+    d.diversificationBenefit = finiteOr0(report.diversificationBenefit);
+
+    std::vector<ContributionBar> all;
+    all.reserve(report.holdings.size());
+    for (const HoldingRisk &h : report.holdings) {
+        ContributionBar bar;
+        bar.asset = QString::fromStdString(h.asset);
+        bar.componentVar = finiteOr0(h.componentVar);
+        if (h.componentShare && std::isfinite(*h.componentShare))
+            bar.share = h.componentShare;
+        bar.hedge = bar.componentVar < 0.0;
+        all.push_back(std::move(bar));
+    }
+    // Keep the largest by size; pool the rest.
+    const std::size_t keep = static_cast<std::size_t>(std::max(1, options.maxBars));
+    if (all.size() > keep) {
+        std::stable_sort(all.begin(), all.end(), [](const ContributionBar &a, const ContributionBar &b) {
+            return std::abs(a.componentVar) > std::abs(b.componentVar);
+        });
+        ContributionBar pool;
+        pool.pooled = static_cast<int>(all.size() - (keep - 1));
+        for (std::size_t k = keep - 1; k < all.size(); ++k)
+            pool.componentVar += all[k].componentVar;
+        if (d.portfolioVar != 0.0)
+            pool.share = pool.componentVar / d.portfolioVar;
+        pool.hedge = pool.componentVar < 0.0;
+        pool.asset = tr("%n other holdings", pool.pooled);
+        all.resize(keep - 1);
+        std::stable_sort(all.begin(), all.end(), [](const ContributionBar &a, const ContributionBar &b) { return a.componentVar > b.componentVar; });
+        all.push_back(std::move(pool));
+    } else {
+        std::stable_sort(all.begin(), all.end(), [](const ContributionBar &a, const ContributionBar &b) { return a.componentVar > b.componentVar; });
+    }
+    d.bars = std::move(all);
+    d.hasHedges = std::any_of(d.bars.cbegin(), d.bars.cend(), [](const ContributionBar &b) { return b.hedge; });
+
+    const QString conf = chartstyle::confidenceText(report.assumptions.confidence);
+    d.valueLabel = QCoreApplication::translate("ContributionsChart", "Contribution to %1 %n-day VaR (money)", nullptr,
+                                               report.assumptions.horizonDays).arg(conf);
+    d.benefitText = QCoreApplication::translate("ContributionsChart", "Diversification lowers VaR by %1 (%2 of the standalone sum)")
+                        .arg(chartstyle::money(d.diversificationBenefit),
+                             d.undiversifiedVar != 0.0 ? chartstyle::percent(d.diversificationBenefit / d.undiversifiedVar, 1)
+                                                       : QStringLiteral("n/a"));
+    return d;
+}
+
+} // namespace tailwise::ui
