@@ -3,12 +3,15 @@
 #include "backtestcommand.h"
 #include "reportprint.h"
 #include "varoptions.h"
+#include "workbookinput.h"
+#include "packcommand.h"
 
 #include "tailwise/holdings.h"
 #include "tailwise/prices.h"
 #include "tailwise/risk.h"
 
 #include <cstdio>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -23,6 +26,7 @@ const char *topHelp = R"(tailwise-cli: Value-at-Risk and Expected Shortfall from
 Usage:
   tailwise-cli var [options]     risk figures of a portfolio (tailwise-cli var --help)
   tailwise-cli backtest [options]  would the VaR have held up? (tailwise-cli backtest --help)
+  tailwise-cli pack [options]    make a workbook (.tailwise) from CSV files (tailwise-cli pack --help)
   tailwise-cli --help            this text
   tailwise-cli --version
 )";
@@ -44,7 +48,15 @@ std::string messageFor(const tailwise::Error &error)
 int runVar(const std::vector<std::string> &args)
 {
     using namespace tailwise;
-    auto request = cli::parseVarOptions(args);
+    // A workbook's stored assumptions are the starting point; the options given override them.
+    std::optional<ui::WorkbookContents> workbook;
+    if (const auto path = cli::workbookOption(args)) {
+        auto loaded = cli::readWorkbookInput(*path);
+        if (!loaded)
+            return fail(exitBadInput, loaded.error().message);
+        workbook = std::move(loaded).value();
+    }
+    auto request = cli::parseVarOptions(args, workbook ? workbook->assumptions : Assumptions{});
     if (!request)
         return fail(exitUsage, request.error().message);
     const auto &req = request.value();
@@ -55,6 +67,8 @@ int runVar(const std::vector<std::string> &args)
     Result<RiskReport> report = Error{};
     if (req.single) {
         report = computeSinglePositionRisk(*req.single, req.assumptions);
+    } else if (workbook) {
+        report = computeRisk(workbook->prices, workbook->holdings, req.assumptions);
     } else {
         auto prices = readPriceCsv(req.pricesPath);
         if (!prices)
@@ -92,7 +106,9 @@ int main(int argc, char **argv)
     }
     if (args[0] == "var")
         return runVar({args.begin() + 1, args.end()});
+    if (args[0] == "pack")
+        return tailwise::cli::runPackCommand({args.begin() + 1, args.end()});
     if (args[0] == "backtest")
         return tailwise::cli::runBacktestCommand({args.begin() + 1, args.end()});
-    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest)");
+    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest, pack)");
 }

@@ -47,9 +47,10 @@ std::string optionForField(const std::string &field)
     return it == names.end() ? field : it->second;
 }
 
-Result<VarRequest> parseVarOptions(const std::vector<std::string> &args)
+Result<VarRequest> parseVarOptions(const std::vector<std::string> &args, const Assumptions &start)
 {
     VarRequest request;
+    request.assumptions = start;
     std::optional<double> value, volatility, drift;
     for (std::size_t i = 0; i < args.size(); ++i) {
         const std::string &option = args[i];
@@ -63,7 +64,7 @@ Result<VarRequest> parseVarOptions(const std::vector<std::string> &args)
         }
         if (option.rfind("--", 0) != 0)
             return usage(option, "unexpected argument: options start with '--' (see tailwise-cli var --help)");
-        static const char *known[] = {"--prices", "--holdings", "--value", "--volatility", "--drift",
+        static const char *known[] = {"--prices", "--holdings", "--workbook", "--value", "--volatility", "--drift",
                                       "--confidence", "--horizon", "--days-per-year", "--window", "--returns",
                                       "--estimator", "--lambda", "--mean", "--model"};
         bool isKnown = false;
@@ -89,6 +90,8 @@ Result<VarRequest> parseVarOptions(const std::vector<std::string> &args)
         Assumptions &a = request.assumptions;
         if (option == "--prices") {
             request.pricesPath = text;
+        } else if (option == "--workbook") {
+            request.workbookPath = text;
         } else if (option == "--holdings") {
             request.holdingsPath = text;
         } else if (option == "--value" || option == "--volatility" || option == "--drift") {
@@ -112,7 +115,9 @@ Result<VarRequest> parseVarOptions(const std::vector<std::string> &args)
                 return v.error();
             a.daysPerYear = v.value();
         } else if (option == "--window") {
-            if (text != "all") {
+            if (text == "all") {
+                a.window.reset(); // also when a workbook stored a window
+            } else {
                 auto v = whole("a whole number of daily returns, or 'all'");
                 if (!v)
                     return v.error();
@@ -150,6 +155,11 @@ Result<VarRequest> parseVarOptions(const std::vector<std::string> &args)
 
     const bool fileMode = !request.pricesPath.empty() || !request.holdingsPath.empty();
     const bool singleMode = value || volatility || drift;
+    if (!request.workbookPath.empty()) {
+        if (fileMode || singleMode)
+            return usage("--workbook", "give either --workbook, or --prices and --holdings, or --value and --volatility");
+        return request;
+    }
     if (fileMode && singleMode)
         return usage("--value", "give either --prices and --holdings, or --value and --volatility, not both");
     if (singleMode) {
@@ -175,11 +185,14 @@ std::string varHelpText()
 
 Usage:
   tailwise-cli var --prices FILE --holdings FILE [options] [--json]
+  tailwise-cli var --workbook FILE [options] [--json]
   tailwise-cli var --value V --volatility S [--drift M] [options] [--json]
 
 Data:
   --prices FILE        daily price history, CSV: date,<asset>,<asset>,... (ISO dates)
   --holdings FILE      holdings, CSV: asset,quantity[,price] or asset,value
+  --workbook FILE      a saved workbook (.tailwise): its prices, holdings and assumptions;
+                       an assumption option given here overrides the stored one
   --value V            one position's money value (instead of the two files)
   --volatility S       its annual volatility as a fraction (0.2 = 20%)
   --drift M            its expected annual return as a fraction (default 0)

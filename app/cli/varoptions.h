@@ -15,13 +15,16 @@ namespace tailwise::cli {
 struct VarRequest {
     std::string pricesPath;
     std::string holdingsPath;
+    std::string workbookPath; // --workbook: prices, holdings and assumptions from a saved workbook
     std::optional<SinglePosition> single; // --value/--volatility[/--drift] mode
     Assumptions assumptions;
     bool json = false;
     bool help = false;
 };
 
-Result<VarRequest> parseVarOptions(const std::vector<std::string> &args);
+// `start` is where the assumptions begin before the options change them: the defaults, or a
+// workbook's stored assumptions (an option given overrides the stored value).
+Result<VarRequest> parseVarOptions(const std::vector<std::string> &args, const Assumptions &start = Assumptions{});
 std::string varHelpText();
 
 // "window" → "--window": the CLI's name for a core field, so messages speak the user's language.

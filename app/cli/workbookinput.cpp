@@ -1,0 +1,23 @@
+#include "workbookinput.h"
+
+#include "document/workbookfile.h"
+
+#include <QFile>
+
+namespace tailwise::cli {
+
+std::optional<std::string> workbookOption(const std::vector<std::string> &args)
+{
+    for (std::size_t i = 0; i + 1 < args.size(); ++i)
+        if (args[i] == "--workbook")
+            return args[i + 1];
+    return std::nullopt;
+}
+
+Result<ui::WorkbookContents> readWorkbookInput(const std::string &path)
+{
+    // File names are bytes on Linux; decodeName maps them the way QFile opens them.
+    return ui::loadWorkbook(QFile::decodeName(path.c_str()));
+}
+
+} // namespace tailwise::cli
