@@ -1,5 +1,7 @@
 #include "tailwise/risk.h"
 
+#include "tailwise/finitecheck.h"
+
 #include "tailwise/cornishfisher.h"
 #include "tailwise/estimate.h"
 #include "tailwise/historical.h"
@@ -219,6 +221,8 @@ Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdi
         hr.price = h.value ? 0.0 : holdingPrice(h, prices);
         hr.quantity = h.value ? 0.0 : h.quantity;
     }
+    if (auto ok = requireFiniteInputs(held, exposures, holdings, prices.sourceName); !ok)
+        return ok.error();
     report.windowReturns = static_cast<int>(held.rows());
     report.windowFirst = window.value().firstDate;
     report.windowLast = window.value().lastDate;
@@ -233,6 +237,8 @@ Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdi
     if (auto ok = applyModel(report, control); !ok)
         return ok.error();
     finishFigures(report);
+    if (auto ok = requireFiniteReport(report); !ok)
+        return ok.error();
     return report;
 }
 
@@ -268,6 +274,8 @@ Result<RiskReport> computeSinglePositionRisk(const SinglePosition &position, con
     if (auto ok = applyModel(report, control); !ok)
         return ok.error();
     finishFigures(report);
+    if (auto ok = requireFiniteReport(report); !ok)
+        return ok.error();
     return report;
 }
 
