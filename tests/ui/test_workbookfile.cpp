@@ -14,6 +14,7 @@
 #include <QJsonObject>
 #include <QTemporaryDir>
 #include <QTest>
+#include <QXmlStreamReader>
 
 #include <bit>
 #include <cmath>
@@ -159,6 +160,7 @@ private slots:
     void failedSaveKeepsThePreviousFile();
     void saveIntoReadOnlyFolderFails();
     void sampleWorkbookMatchesItsCsvs();
+    void desktopFilesNameTheWorkbookType();
 };
 
 void TestWorkbookFile::assumptionsHaveTheFieldsTheFileStores()
@@ -524,6 +526,48 @@ void TestWorkbookFile::sampleWorkbookMatchesItsCsvs()
     QCOMPARE(wb.value().assumptions.confidence, 0.99);
     QCOMPARE(wb.value().assumptions.window, std::optional<int>(500));
     QCOMPARE(wb.value().assumptions.estimator, CovarianceEstimator::Sample);
+}
+
+void TestWorkbookFile::desktopFilesNameTheWorkbookType()
+{
+    // resources/: the MIME type, its glob, the .desktop entry and the icon must agree with the
+    // names the program uses (workbookfile.h), or a double-click would not open a workbook.
+    const QString dir = QStringLiteral(TAILWISE_SOURCE_DIR "/resources/");
+    const QString mimeType = QLatin1String(workbookMimeType);
+
+    QFile mime(dir + QStringLiteral("tailwise-workbook.xml"));
+    QVERIFY(mime.open(QIODevice::ReadOnly));
+    QXmlStreamReader xml(&mime);
+    QStringList types, globs;
+    while (!xml.atEnd()) {
+        if (xml.readNext() != QXmlStreamReader::StartElement)
+            continue;
+        if (xml.name() == QLatin1String("mime-type"))
+            types << xml.attributes().value(QLatin1String("type")).toString();
+        if (xml.name() == QLatin1String("glob"))
+            globs << xml.attributes().value(QLatin1String("pattern")).toString();
+    }
+    QVERIFY2(!xml.hasError(), qPrintable(xml.errorString()));
+    QCOMPARE(types, QStringList{mimeType});
+    QCOMPARE(globs, QStringList{QStringLiteral("*.") + QLatin1String(workbookSuffix)});
+
+    QFile desktop(dir + QStringLiteral("tailwise.desktop"));
+    QVERIFY(desktop.open(QIODevice::ReadOnly | QIODevice::Text));
+    const QStringList lines = QString::fromUtf8(desktop.readAll()).split(QLatin1Char('\n'));
+    QCOMPARE(lines.value(0), QStringLiteral("[Desktop Entry]"));
+    QVERIFY(lines.contains(QStringLiteral("Exec=tailwise %f")));
+    QVERIFY(lines.contains(QStringLiteral("Icon=tailwise")));
+    QVERIFY(lines.contains(QStringLiteral("MimeType=") + mimeType + QLatin1Char(';')));
+
+    // The icon named there is installed as tailwise.svg; it must be well-formed SVG.
+    QFile icon(dir + QStringLiteral("tailwise.svg"));
+    QVERIFY(icon.open(QIODevice::ReadOnly));
+    QXmlStreamReader svg(&icon);
+    QVERIFY(svg.readNextStartElement());
+    QCOMPARE(svg.name().toString(), QStringLiteral("svg"));
+    while (!svg.atEnd())
+        svg.readNext();
+    QVERIFY2(!svg.hasError(), qPrintable(svg.errorString()));
 }
 
 QTEST_GUILESS_MAIN(TestWorkbookFile)
