@@ -47,6 +47,8 @@ std::string backtestOptionForField(const std::string &field)
         return "--holdings";
     if (field == "returns")
         return "--returns";
+    if (field == "dof")
+        return "--dof";
     return optionForField(field);
 }
 
@@ -54,6 +56,7 @@ Result<BacktestOptions> parseBacktestOptions(const std::vector<std::string> &arg
 {
     BacktestOptions options;
     Assumptions &a = options.assumptions;
+    bool gaveDof = false;
     for (std::size_t i = 0; i < args.size(); ++i) {
         const std::string &option = args[i];
         if (option == "--help" || option == "-h") {
@@ -71,7 +74,7 @@ Result<BacktestOptions> parseBacktestOptions(const std::vector<std::string> &arg
         if (option.rfind("--", 0) != 0)
             return usage(option, "unexpected argument: options start with '--' (see tailwise-cli backtest --help)");
         static const char *known[] = {"--prices", "--holdings", "--window",  "--confidence", "--model",
-                                      "--estimator", "--lambda", "--mean", "--returns"};
+                                      "--estimator", "--lambda", "--mean", "--returns", "--dof"};
         bool isKnown = false;
         for (const char *k : known)
             isKnown |= option == k;
@@ -115,6 +118,16 @@ Result<BacktestOptions> parseBacktestOptions(const std::vector<std::string> &arg
             if (!v)
                 return usage(option, "expected 'zero' or 'sample', found \"" + text + "\"");
             a.mean = *v;
+        } else if (option == "--dof") {
+            gaveDof = true;
+            if (text == "fit") {
+                a.dof = DegreesOfFreedom::fit();
+            } else {
+                const auto v = toDouble(text);
+                if (!v)
+                    return usage(option, "expected degrees of freedom above 2 (e.g. 5) or 'fit', found \"" + text + "\"");
+                a.dof = DegreesOfFreedom::given(*v);
+            }
         } else if (option == "--model") {
             const auto v = parseRiskModel(text);
             if (!v)
@@ -124,6 +137,8 @@ Result<BacktestOptions> parseBacktestOptions(const std::vector<std::string> &arg
             a.model = *v;
         }
     }
+    if (gaveDof && a.model != RiskModel::StudentT)
+        return usage("--dof", "applies to --model student-t, not " + std::string(toName(a.model)));
     if (auto ok = validate(a); !ok)
         return usage(backtestOptionForField(ok.error().field), ok.error().message.substr(ok.error().field.size() + 2));
     if (options.pricesPath.empty())
@@ -156,8 +171,12 @@ Data:
 Assumptions:
   --window W           daily returns behind each forecast, 2 <= W < returns in the history
   --confidence C       VaR confidence, 0 < C < 1 (default 0.99); expected exception rate 1 - C
-  --model NAME         'normal' (variance-covariance, default); other models are not
-                       backtested yet
+  --model NAME         'normal' (variance-covariance, default), 'student-t' (fatter tails),
+                       'cornish-fisher' (normal corrected for the P&L's skewness and
+                       kurtosis) or 'historical' (the window's own P&L); 'monte-carlo' is
+                       not backtested (a simulation a day)
+  --dof NU|fit         Student-t degrees of freedom above 2, or 'fit' (default) to fit them
+                       to each window's P&L by its kurtosis
   --estimator KIND     covariance: 'sample' (equal weights, default) or 'ewma'
   --lambda L           EWMA decay, 0 < L < 1 (default 0.94)
   --mean KIND          daily mean: 'zero' (default) or 'sample' (estimated from the window)

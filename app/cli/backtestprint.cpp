@@ -42,11 +42,27 @@ std::string probability(double p)
 
 bool rejects(const LikelihoodRatio &lr) { return lr.pValue < verdictTestSize; }
 
+std::string modelWords(const Assumptions &a)
+{
+    switch (a.model) {
+    case RiskModel::StudentT:
+        return a.dof.kind == DegreesOfFreedom::Kind::Given
+                   ? "Student-t model (" + fixed(a.dof.value, 2) + " degrees of freedom), "
+                   : std::string("Student-t model (degrees of freedom fitted to each window's P&L), ");
+    case RiskModel::CornishFisher: return "Cornish-Fisher model (skewness and kurtosis of each window's P&L), ";
+    case RiskModel::Historical: return "historical model (empirical quantile of each window's P&L), ";
+    default: return std::string(toName(a.model)) + " model, ";
+    }
+}
+
 std::string methodWords(const Assumptions &a)
 {
-    std::string s = std::string(toName(a.model)) + " model, ";
-    s += a.estimator == CovarianceEstimator::Ewma ? "EWMA covariance (lambda " + fixed(a.lambda, 4) + ")" : "sample covariance";
-    s += a.mean == MeanModel::Zero ? ", zero mean, " : ", estimated mean, ";
+    std::string s = modelWords(a);
+    if (a.model != RiskModel::Historical) {
+        s += a.estimator == CovarianceEstimator::Ewma ? "EWMA covariance (lambda " + fixed(a.lambda, 4) + ")"
+                                                      : std::string("sample covariance");
+        s += a.mean == MeanModel::Zero ? ", zero mean, " : ", estimated mean, ";
+    }
     s += a.returns == ReturnType::Simple ? "simple returns" : "log returns for the forecast, simple returns for the P&L";
     return s;
 }

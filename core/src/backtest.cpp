@@ -1,12 +1,19 @@
 #include "tailwise/backtest.h"
 
+#include "tailwise/cornishfisher.h"
+#include "tailwise/historical.h"
 #include "tailwise/parametric.h"
 #include "tailwise/returns.h"
+#include "tailwise/shape.h"
+#include "tailwise/studentt.h"
+
+#include <boost/math/distributions/normal.hpp>
 
 #include <algorithm>
 #include <cassert>
 #include <cmath>
 #include <memory>
+#include <optional>
 #include <span>
 #include <string>
 #include <utility>
@@ -23,11 +30,65 @@ Error plainError(ErrorKind kind, std::string message)
     return e;
 }
 
-Result<double> normalForecast(const ForecastInput &in)
+double portfolioSd(const ForecastInput &in)
 {
-    const double sd = std::sqrt(in.moments.portfolioVariance(in.exposures));
-    const double mean = in.exposures.dot(in.moments.mean());
-    return normalQuantile(in.confidence) * sd - mean;
+    return std::sqrt(in.moments.portfolioVariance(in.exposures));
+}
+
+double portfolioMean(const ForecastInput &in)
+{
+    return in.exposures.dot(in.moments.mean());
+}
+
+Forecast normalForecast(const ForecastInput &in)
+{
+    return Forecast{normalQuantile(in.assumptions.confidence) * portfolioSd(in) - portfolioMean(in), false};
+}
+
+// The window's daily P&L with today's exposures (shape.h's dailyPnl), for the models that look at
+// its shape or its empirical quantile.
+Eigen::VectorXd windowPnl(const ForecastInput &in)
+{
+    return in.moments.windowReturns() * in.exposures;
+}
+
+std::optional<Shape> shapeOf(const Eigen::VectorXd &pnl)
+{
+    return momentShape(std::span<const double>(pnl.data(), static_cast<std::size_t>(pnl.size())));
+}
+
+Forecast studentTForecast(const ForecastInput &in)
+{
+    const DegreesOfFreedom &dof = in.assumptions.dof;
+    std::optional<double> nu;
+    if (dof.kind == DegreesOfFreedom::Kind::Given) {
+        nu = dof.value;
+    } else if (const auto shape = shapeOf(windowPnl(in))) {
+        nu = fitDofByKurtosis(shape->excessKurtosis);
+    }
+    if (!nu)
+        return Forecast{normalForecast(in).var, true};
+    return Forecast{studentTVarFactor(*nu, in.assumptions.confidence) * portfolioSd(in) - portfolioMean(in), false};
+}
+
+Forecast cornishFisherForecast(const ForecastInput &in)
+{
+    const auto shape = shapeOf(windowPnl(in));
+    if (!shape)
+        return Forecast{normalForecast(in).var, true};
+    // −z_cf(Φ⁻¹(α)), α = 1 − C, as cornishFisherFactors() gives it (without its ES quadrature).
+    const double alpha = 1.0 - in.assumptions.confidence;
+    const double z = boost::math::quantile(boost::math::normal(), alpha);
+    return Forecast{-cornishFisherZ(z, *shape) * portfolioSd(in) - portfolioMean(in), false};
+}
+
+Forecast historicalForecast(const ForecastInput &in)
+{
+    const Eigen::VectorXd losses = -windowPnl(in);
+    const VarEs figures =
+        empiricalVarEs(std::span<const double>(losses.data(), static_cast<std::size_t>(losses.size())),
+                       in.assumptions.confidence);
+    return Forecast{figures.var, false};
 }
 
 } // namespace
@@ -36,17 +97,24 @@ Status checkBacktestModel(RiskModel model)
 {
     // Written as a test rather than a switch so that models added to RiskModel are refused here
     // until the backtest learns them, instead of failing to compile.
-    if (model == RiskModel::Normal)
+    if (model == RiskModel::Normal || model == RiskModel::StudentT || model == RiskModel::CornishFisher
+        || model == RiskModel::Historical)
         return Done{};
     return fieldError(ErrorKind::Assumption, "model",
                       "the backtest does not support the '" + std::string(toName(model))
-                          + "' model yet; it supports 'normal'");
+                          + "' model yet; it supports 'normal', 'student-t', 'cornish-fisher' and 'historical'");
 }
 
-Result<double> forecastOneDayVar(RiskModel model, const ForecastInput &input)
+Result<Forecast> forecastOneDayVar(RiskModel model, const ForecastInput &input)
 {
     if (model == RiskModel::Normal)
         return normalForecast(input);
+    if (model == RiskModel::StudentT)
+        return studentTForecast(input);
+    if (model == RiskModel::CornishFisher)
+        return cornishFisherForecast(input);
+    if (model == RiskModel::Historical)
+        return historicalForecast(input);
     return checkBacktestModel(model).error();
 }
 
@@ -140,6 +208,7 @@ Result<BacktestResult> runBacktest(const BacktestRequest &request, std::stop_tok
     result.days.reserve(static_cast<std::size_t>(tested));
     const int progressStep = std::max(1, tested / 100);
     Eigen::VectorXd exposures(n);
+    int fallbackDays = 0;
     for (int k = 0; k < tested; ++k) {
         if (stop.stop_requested())
             return plainError(ErrorKind::Cancelled, "the backtest was stopped before it finished");
@@ -148,13 +217,14 @@ Result<BacktestResult> runBacktest(const BacktestRequest &request, std::stop_tok
         const Eigen::Index closeBefore = row;
         for (Eigen::Index i = 0; i < n; ++i)
             exposures(i) = byValue(i) ? fixedValue(i) : quantity(i) * heldPrices(closeBefore, i);
-        auto var = forecastOneDayVar(a.model, ForecastInput{exposures, moments, a.confidence});
-        if (!var)
-            return var.error();
+        auto forecast = forecastOneDayVar(a.model, ForecastInput{exposures, moments, a});
+        if (!forecast)
+            return forecast.error();
+        fallbackDays += forecast.value().normalFallback ? 1 : 0;
         BacktestDay day;
         day.date = prices.dates[static_cast<std::size_t>(row + 1)];
         day.pnl = exposures.dot(simple.row(row).transpose());
-        day.var = var.value();
+        day.var = forecast.value().var;
         if (!std::isfinite(day.pnl) || !std::isfinite(day.var))
             return plainError(ErrorKind::Numerical, "the backtest gave a non-finite figure on " + toIso(day.date)
                                                         + ": the prices or holdings are too large to compute with");
@@ -167,6 +237,12 @@ Result<BacktestResult> runBacktest(const BacktestRequest &request, std::stop_tok
     }
 
     fillStatistics(result);
+    result.normalFallbackDays = fallbackDays;
+    if (fallbackDays > 0)
+        result.warnings.push_back("on " + std::to_string(fallbackDays) + " of " + std::to_string(tested) + " days the "
+                                  + std::string(toName(a.model))
+                                  + " model could not be fitted to the window's P&L (no spread, or no excess kurtosis "
+                                    "for a Student-t) and the normal model was used for that day");
     if (result.observations < 250)
         result.warnings.push_back("only " + std::to_string(result.observations)
                                   + " days were tested: the coverage tests have little power on fewer than about 250");

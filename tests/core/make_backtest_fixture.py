@@ -11,7 +11,8 @@ Definition followed, for each day t = W+1 .. T:
   e_t = quantity * P_{t-1} (or the money value, constant), window r_{t-W} .. r_{t-1} (simple or
   log returns as the case says), sample covariance (ddof = 1) or finite-window EWMA
   (1-lam) lam^k / (1 - lam^W), mean zero or the window's sample mean,
-  VaR_t = z sqrt(e' S e) - e' mu with z = norm.ppf(C); P&L_t = e_t . r_t with simple returns;
+  VaR_t = z sqrt(e' S e) - e' mu with z = norm.ppf(C) (normal), or the Student-t, Cornish-Fisher
+  and historical forms of backtest.h on the window's P&L p = R e; P&L_t = e_t . r_t with simple returns;
   exception when -P&L_t > VaR_t. Then Kupiec (1995) LR_pof, Christoffersen (1998) LR_ind and
   LR_cc = LR_pof + LR_ind, p-values from chi2.sf, and the zone from binom.cdf / binom.sf
   (green below 95 %, yellow below 99.99 %, red from there; Basel Committee 1996).
@@ -22,6 +23,7 @@ import math
 import os
 import sys
 
+import mpmath
 import numpy as np
 import scipy
 from scipy import stats
@@ -44,7 +46,23 @@ CASES = [
      "window": 500, "confidence": 0.975, "returns": "simple", "estimator": "ewma", "lambda": 0.97, "mean": "sample"},
     {"name": "short-window-99", "holdings": [["SMI", "quantity", 10], ["CAC", "quantity", 10]],
      "window": 20, "confidence": 0.99, "returns": "simple", "estimator": "sample", "lambda": 0.94, "mean": "zero"},
+    {"name": "student-t-fit-99", "model": "student-t", "dof": "fit",
+     "holdings": [["DAX", "quantity", 100], ["SMI", "quantity", 80], ["CAC", "quantity", 120], ["FTSE", "quantity", 60]],
+     "window": 250, "confidence": 0.99, "returns": "simple", "estimator": "sample", "lambda": 0.94, "mean": "zero"},
+    {"name": "student-t-5-975", "model": "student-t", "dof": 5,
+     "holdings": [["DAX", "value", 1000000], ["SMI", "value", 500000], ["FTSE", "value", -300000]],
+     "window": 500, "confidence": 0.975, "returns": "simple", "estimator": "ewma", "lambda": 0.94, "mean": "sample"},
+    {"name": "cornish-fisher-99", "model": "cornish-fisher",
+     "holdings": [["DAX", "quantity", 100], ["SMI", "quantity", 80], ["CAC", "quantity", 120], ["FTSE", "quantity", 60]],
+     "window": 250, "confidence": 0.99, "returns": "simple", "estimator": "ewma", "lambda": 0.97, "mean": "zero"},
+    {"name": "historical-99", "model": "historical",
+     "holdings": [["DAX", "quantity", 50], ["CAC", "quantity", -40], ["FTSE", "quantity", 70]],
+     "window": 500, "confidence": 0.99, "returns": "simple", "estimator": "sample", "lambda": 0.94, "mean": "sample"},
+    {"name": "historical-log-95", "model": "historical",
+     "holdings": [["DAX", "quantity", 100], ["SMI", "quantity", 80], ["CAC", "quantity", 120], ["FTSE", "quantity", 60]],
+     "window": 100, "confidence": 0.95, "returns": "log", "estimator": "sample", "lambda": 0.94, "mean": "zero"},
 ]
+# Cases without "model" use the normal model.
 
 # Every SAMPLE_EVERY-th tested day keeps its P&L and VaR in the fixture (all exceptions are listed).
 SAMPLE_EVERY = 25
@@ -83,6 +101,52 @@ def christoffersen(hits):
     return max(lr, 0.0), [n00, n01, n10, n11]
 
 
+def t_quantile(c, nu):
+    """Student-t quantile to full double precision. SciPy 1.10's t.ppf (special.stdtrit) is off by
+    about 1e-9 relative at some non-integer nu (e.g. 2.968223896266 against 2.968223893088 at
+    nu = 7.2605, C = 0.99), too coarse for a 1e-9 comparison, so the quantile is solved with mpmath
+    at 40 digits from the regularised incomplete beta form of the t CDF, starting from SciPy's."""
+    mpmath.mp.dps = 40
+    n = mpmath.mpf(nu)
+
+    def cdf(x):
+        return 1 - mpmath.betainc(n / 2, mpmath.mpf(1) / 2, 0, n / (n + x * x), regularized=True) / 2
+
+    start = mpmath.mpf(float(stats.t.ppf(c, nu)))
+    return float(mpmath.findroot(lambda x: cdf(x) - mpmath.mpf(c), start))
+
+
+def forecast(case, window, cov, mu, e, c, z):
+    """One-day VaR of exposures e from one window, and whether the normal was used instead."""
+    model = case.get("model", "normal")
+    sd = math.sqrt(max(float(e @ cov @ e), 0.0))
+    mean = float(e @ mu)
+    normal = z * sd - mean
+    pnl = window @ e                     # the window's daily P&L at today's exposures
+    if model == "historical":
+        return float(np.quantile(-pnl, c, method="linear")), 0   # Hyndman-Fan type 7
+    if model == "normal":
+        return normal, 0
+    if np.var(pnl) == 0.0:
+        return normal, 1
+    skew = float(stats.skew(pnl, bias=True))
+    kurt = float(stats.kurtosis(pnl, fisher=True, bias=True))
+    if model == "student-t":
+        if case["dof"] == "fit":
+            if not kurt > 0.0:
+                return normal, 1
+            nu = 4.0 + 6.0 / kurt
+        else:
+            nu = float(case["dof"])
+        factor = math.sqrt((nu - 2.0) / nu) * t_quantile(c, nu)
+        return factor * sd - mean, 0
+    if model == "cornish-fisher":
+        q = stats.norm.ppf(1.0 - c)
+        zcf = q + (q * q - 1) * skew / 6 + (q ** 3 - 3 * q) * kurt / 24 - (2 * q ** 3 - 5 * q) * skew ** 2 / 36
+        return -zcf * sd - mean, 0
+    raise ValueError(model)
+
+
 def run(case, assets, dates, prices):
     cols = [assets.index(h[0]) for h in case["holdings"]]
     p = prices[:, cols]
@@ -96,6 +160,7 @@ def run(case, assets, dates, prices):
     amount = np.array([float(h[2]) for h in case["holdings"]])
     n_returns = simple.shape[0]
     days = []
+    fallbacks = 0
     for row in range(w, n_returns):          # return row `row` belongs to date row+1
         window = est[row - w:row]
         if case["estimator"] == "ewma":
@@ -106,7 +171,8 @@ def run(case, assets, dates, prices):
             cov = np.cov(window, rowvar=False, ddof=1)
         mu = window.mean(axis=0) if case["mean"] == "sample" else np.zeros(window.shape[1])
         e = np.where(by_value, amount, amount * p[row])  # price row `row` is the close before the day
-        var = z * math.sqrt(max(float(e @ cov @ e), 0.0)) - float(e @ mu)
+        var, fell_back = forecast(case, window, cov, mu, e, c, z)
+        fallbacks += fell_back
         pnl = float(e @ simple[row])
         days.append((dates[row + 1], pnl, var, -pnl > var))
     hits = np.array([d[3] for d in days], dtype=int)
@@ -135,6 +201,7 @@ def run(case, assets, dates, prices):
         "last_date": days[-1][0],
         "exception_dates": [d[0] for d in days if d[3]],
         "smallest_relative_margin": margin,
+        "normal_fallback_days": fallbacks,
         "sampled_days": [{"index": i, "date": d[0], "pnl": d[1], "var": d[2]}
                          for i, d in enumerate(days) if i % SAMPLE_EVERY == 0 or d[3]],
     })
@@ -148,6 +215,7 @@ def main():
         "data": "tests/data/eu-stock-indices-1991-1998.csv",
         "numpy": np.__version__,
         "scipy": scipy.__version__,
+        "mpmath": mpmath.__version__,
         "python": sys.version.split()[0],
         "cases": [run(c, assets, dates, prices) for c in CASES],
     }

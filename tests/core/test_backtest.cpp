@@ -1,7 +1,8 @@
 // The backtest (backtest.h) and its incremental rolling estimates (rollingmoments.h).
 //
 // - Real data: tests/data/backtest-eu-fixture.json, computed by tests/core/make_backtest_fixture.py
-//   with NumPy/SciPy from the definition in backtest.h, refitting every window from scratch
+//   with NumPy/SciPy from the definition in backtest.h (normal, Student-t fitted and given,
+//   Cornish-Fisher, historical), refitting every window from scratch
 //   (versions recorded in the file; data provenance in tests/data/README.md). Exceptions must be
 //   the same days; figures and statistics agree to 1e-9 relative.
 // - Incremental estimates equal a from-scratch refit (estimate.h) at every step to 1e-9.
@@ -78,6 +79,16 @@ BacktestRequest requestOf(const QJsonObject &c)
     a.estimator = c["estimator"].toString() == "ewma" ? CovarianceEstimator::Ewma : CovarianceEstimator::Sample;
     a.lambda = c["lambda"].toDouble();
     a.mean = c["mean"].toString() == "sample" ? MeanModel::Sample : MeanModel::Zero;
+    if (c.contains("model")) {
+        const auto model = parseRiskModel(c["model"].toString().toStdString());
+        if (!model)
+            qFatal("unknown model in the fixture");
+        a.model = *model;
+    }
+    if (c["dof"].isDouble())
+        a.dof = DegreesOfFreedom::given(c["dof"].toDouble());
+    else if (c["dof"].toString() == "fit")
+        a.dof = DegreesOfFreedom::fit();
     return r;
 }
 
@@ -184,6 +195,7 @@ void TestBacktest::realDataAgainstNumpy()
         expectedDates.push_back(d.toString().toStdString());
     QCOMPARE(dates, expectedDates);
     QCOMPARE(r.exceptions, c["exceptions"].toInt());
+    QCOMPARE(r.normalFallbackDays, c["normal_fallback_days"].toInt());
     TW_CLOSE_REL(r.expectedExceptions, c["expected_exceptions"].toDouble(), relTolerance);
     const QJsonObject k = c["kupiec"].toObject();
     TW_CLOSE_REL(r.kupiec.lr, k["lr"].toDouble(), relTolerance);
@@ -379,9 +391,10 @@ void TestBacktest::errorsNameTheirField()
 
 void TestBacktest::unsupportedModelIsRefused()
 {
-    QVERIFY(checkBacktestModel(RiskModel::Normal).ok());
+    for (RiskModel m : {RiskModel::Normal, RiskModel::StudentT, RiskModel::CornishFisher, RiskModel::Historical})
+        QVERIFY(checkBacktestModel(m).ok());
     // Any other model the core knows is refused up front, naming the field and the model.
-    for (const char *name : {"student-t", "cornish-fisher", "historical", "monte-carlo"}) {
+    for (const char *name : {"monte-carlo"}) {
         const auto model = parseRiskModel(name);
         if (!model)
             continue;

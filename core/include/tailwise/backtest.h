@@ -25,9 +25,19 @@
 // Estimates roll incrementally (rollingmoments.h): each day adds the newest return and drops the
 // oldest; nothing is refitted from scratch except the periodic exact re-synchronisation.
 //
-// Models plug in through forecastOneDayVar(): the normal model is VaR_t = z √(e_tᵀ Σ_t e_t) − e_tᵀ μ_t,
-// z = Φ⁻¹(C) (parametric.h). A model the backtest does not support yet is refused before any work
-// with an Error whose field is "model".
+// Models plug in through forecastOneDayVar(), each as `tailwise-cli var` computes its one-day VaR,
+// with σ_t = √(e_tᵀ Σ_t e_t), μ_t = e_tᵀ μ_t from the rolling estimates and p_s = e_t · r_s the
+// window's daily P&L at today's exposures (shape.h):
+//   normal          VaR_t = z σ_t − μ_t, z = Φ⁻¹(C)                                  (parametric.h)
+//   student-t       VaR_t = s_ν t_ν⁻¹(C) σ_t − μ_t; ν as given, or fitted each day by the
+//                   kurtosis of p (ν = 4 + 6/K)                                       (studentt.h)
+//   cornish-fisher  VaR_t = −z_cf(Φ⁻¹(1−C)) σ_t − μ_t with the skewness and excess kurtosis of p
+//                                                                                     (cornishfisher.h)
+//   historical      VaR_t = the type-7 empirical C-quantile of the losses −p          (historical.h)
+// Where a day's window cannot be fitted (P&L without spread; for a fitted Student-t, excess
+// kurtosis ≤ 0) that day uses the normal model, as `var` does, and a warning counts such days.
+// Monte Carlo is not backtested (a simulation per day): it is refused before any work with an
+// Error whose field is "model", as any model the backtest does not support.
 //
 // Assumptions used: window (required, 2 ≤ W < number of returns), confidence, returns, estimator,
 // lambda, mean, model. The horizon and days-per-year do not apply (a one-day backtest); a horizon
@@ -81,6 +91,7 @@ struct BacktestResult {
     LikelihoodRatio kupiec;          // LR_pof, χ²(1)
     ChristoffersenResult christoffersen;
     ZoneResult zone;
+    int normalFallbackDays = 0;      // days the model could not be fitted and the normal was used
     Warnings warnings;
 };
 
@@ -97,7 +108,12 @@ void fillStatistics(BacktestResult &result);
 struct ForecastInput {
     const Eigen::VectorXd &exposures; // e_t, money, in holdings order
     const RollingMoments &moments;    // the window's estimates; moments.windowReturns() the returns
-    double confidence = 0.99;         // C
+    const Assumptions &assumptions;   // confidence, dof, …
+};
+
+struct Forecast {
+    double var = 0.0;            // one-day VaR, money, positive = loss
+    bool normalFallback = false; // the model could not be fitted that day and the normal was used
 };
 
 // Ok when the backtest can run `model`; otherwise an Error (field "model") naming the model and
@@ -105,7 +121,7 @@ struct ForecastInput {
 Status checkBacktestModel(RiskModel model);
 // One-day VaR (money, positive = loss) of the exposures under `model`. The one place a model
 // plugs into the backtest.
-Result<double> forecastOneDayVar(RiskModel model, const ForecastInput &input);
+Result<Forecast> forecastOneDayVar(RiskModel model, const ForecastInput &input);
 
 // Dates of the exceptions, oldest first.
 std::vector<Date> exceptionDates(const BacktestResult &result);
