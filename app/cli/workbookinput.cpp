@@ -8,10 +8,12 @@ namespace tailwise::cli {
 
 std::optional<std::string> workbookOption(const std::vector<std::string> &args)
 {
+    // The last one wins, as for every other option (parseVarOptions).
+    std::optional<std::string> path;
     for (std::size_t i = 0; i + 1 < args.size(); ++i)
         if (args[i] == "--workbook")
-            return args[i + 1];
-    return std::nullopt;
+            path = args[++i];
+    return path;
 }
 
 Result<ui::WorkbookContents> readWorkbookInput(const std::string &path)
