@@ -65,7 +65,7 @@ void ContributionsChart::build()
     p->plotLayout()->insertRow(0);
     p->plotLayout()->addElement(0, 0, title(p, tr("Contribution of each holding to VaR")));
     p->plotLayout()->addElement(0, 1, title(p, tr("Diversification")));
-    p->plotLayout()->setColumnStretchFactors({2.6, 1.0});
+    p->plotLayout()->setColumnStretchFactors({2.0, 1.0});
     chartstyle::stylePlot(p);
 
     // Bars run horizontally: holdings on the vertical (key) axis, money on the horizontal.
@@ -100,7 +100,7 @@ void ContributionsChart::build()
     m_stepRect->axis(QCPAxis::atTop)->setVisible(false);
     m_stepRect->axis(QCPAxis::atRight)->setVisible(false);
     QSharedPointer<QCPAxisTickerText> stepTicker(new QCPAxisTickerText);
-    stepTicker->addTick(1, tr("Standalone\nsum"));
+    stepTicker->addTick(1, tr("Sum of\nstandalone"));
     stepTicker->addTick(2, tr("Benefit"));
     stepTicker->addTick(3, tr("Portfolio\nVaR"));
     stepKeys->setTicker(stepTicker);
@@ -157,7 +157,7 @@ void ContributionsChart::fillBars()
 
     // Room on both sides for the value labels.
     const double span = std::max(hi - lo, 1.0);
-    money->setRange(lo - (lo < 0.0 ? 0.28 * span : 0.02 * span), hi + 0.28 * span);
+    money->setRange(lo - (lo < 0.0 ? 0.45 * span : 0.02 * span), hi + 0.4 * span);
     money->setLabel(m_data.valueLabel);
     for (int i = 0; i < n; ++i) {
         const ContributionBar &bar = m_data.bars[static_cast<std::size_t>(i)];
@@ -176,7 +176,7 @@ void ContributionsChart::fillDiversification()
     m_stepBars->setData(QVector<double>{1.0, 3.0}, QVector<double>{whole, var}, true);
     const double top = std::max({whole, var, 1.0});
     const double bottom = std::min({0.0, whole, var});
-    money->setRange(bottom, top * 1.15);
+    money->setRange(bottom, top * 1.32); // room above for the note
 
     // The benefit as a floating step from the standalone sum down to the portfolio VaR.
     auto *step = new QCPItemRect(m_plot);
@@ -190,9 +190,10 @@ void ContributionsChart::fillDiversification()
 
     valueText(m_plot, m_stepRect, chartstyle::money(whole), Qt::AlignHCenter | Qt::AlignBottom)->position->setCoords(1.0, whole);
     valueText(m_plot, m_stepRect, chartstyle::money(var), Qt::AlignHCenter | Qt::AlignBottom)->position->setCoords(3.0, var);
+    // The benefit's figure sits inside its step, clear of the bars' own labels.
     valueText(m_plot, m_stepRect, QLocale().negativeSign() + chartstyle::money(m_data.diversificationBenefit),
-              Qt::AlignHCenter | Qt::AlignBottom)
-        ->position->setCoords(2.0, std::max(whole, var));
+              Qt::AlignCenter)
+        ->position->setCoords(2.0, 0.5 * (whole + var));
     QCPItemText *note = valueText(m_plot, m_stepRect, m_data.benefitText, Qt::AlignHCenter | Qt::AlignTop);
     note->position->setTypeY(QCPItemPosition::ptAxisRectRatio);
     note->position->setCoords(2.0, 0.01);

@@ -58,7 +58,7 @@ ContributionsChartData buildContributionsChartData(const RiskReport &report, con
     const QString conf = chartstyle::confidenceText(report.assumptions.confidence);
     d.valueLabel = QCoreApplication::translate("ContributionsChart", "Contribution to %1 %n-day VaR (money)", nullptr,
                                                report.assumptions.horizonDays).arg(conf);
-    d.benefitText = QCoreApplication::translate("ContributionsChart", "Diversification lowers VaR by %1 (%2 of the standalone sum)")
+    d.benefitText = QCoreApplication::translate("ContributionsChart", "Diversification lowers VaR\nby %1, %2 of the\nsum of standalone VaRs")
                         .arg(chartstyle::money(d.diversificationBenefit),
                              d.undiversifiedVar != 0.0 ? chartstyle::percent(d.diversificationBenefit / d.undiversifiedVar, 1)
                                                        : QStringLiteral("n/a"));

@@ -37,7 +37,7 @@ struct ContributionsChartData {
     double diversificationBenefit = 0.0;
     bool hasHedges = false;
     QString valueLabel;                     // axis label, with the horizon and confidence
-    QString benefitText;                    // one line for the annotation
+    QString benefitText;                    // the annotation, broken into short lines
 };
 
 ContributionsChartData buildContributionsChartData(const RiskReport &report, const ContributionsOptions &options = {});

@@ -1,6 +1,7 @@
 #include "charts/losstailchart.h"
 
 #include "charts/chartstyle.h"
+#include "charts/localeticker.h"
 
 #include <qcustomplot.h>
 
@@ -103,8 +104,8 @@ void LossTailChart::build()
 
     p->legend->setVisible(true);
     p->axisRect()->insetLayout()->setInsetAlignment(0, Qt::AlignTop | Qt::AlignRight);
-    p->xAxis->setNumberFormat(QStringLiteral("f"));
-    p->xAxis->setNumberPrecision(0);
+    p->xAxis->setTicker(QSharedPointer<QCPAxisTicker>(new LocaleTicker));
+    p->yAxis->setTicker(QSharedPointer<QCPAxisTicker>(new LocaleTicker));
 }
 
 void LossTailChart::setData(const LossTailChartData &data)
@@ -137,21 +138,22 @@ void LossTailChart::setData(const LossTailChartData &data)
     placeVertical(m_esLine, data.esMarker);
     m_varText->setText(data.varLabel);
     m_esText->setText(data.esLabel);
-    // Labels stack on the left of their lines, ES (further out) above VaR, so neither covers the other.
-    m_varText->position->setCoords(data.tailBoundary, 0.30);
+    // Labels stack on the left of their lines, ES (further out) above VaR, so neither covers the
+    // other; both sit below the legend's height.
+    m_varText->position->setCoords(data.tailBoundary, 0.36);
     m_varText->setPositionAlignment(Qt::AlignRight | Qt::AlignVCenter);
-    m_esText->position->setCoords(data.esMarker, 0.18);
+    m_esText->position->setCoords(data.esMarker, 0.27);
     m_esText->setPositionAlignment(Qt::AlignRight | Qt::AlignVCenter);
-    const bool markers = data.hasCurve || data.hasHistogram;
-    for (QCPAbstractItem *item : {static_cast<QCPAbstractItem *>(m_varLine), static_cast<QCPAbstractItem *>(m_esLine),
-                                  static_cast<QCPAbstractItem *>(m_varText), static_cast<QCPAbstractItem *>(m_esText)})
-        item->setVisible(markers);
+    // Without a spread VaR and ES coincide at the one certain P&L: one marker says it.
+    m_esLine->setVisible(data.hasCurve);
+    m_esText->setVisible(data.hasCurve);
 
+    p->xAxis->setTicker(QSharedPointer<QCPAxisTicker>(
+        new LocaleTicker(data.unit == LossTailUnit::PercentOfValue ? QLocale().percent() : QString())));
     p->xAxis->setLabel(data.xLabel);
     p->yAxis->setLabel(data.yLabel + QStringLiteral(" (%)"));
-    p->xAxis->setNumberPrecision(data.unit == LossTailUnit::Money ? 0 : 1);
     p->xAxis->setRange(data.xMin, data.xMax);
-    p->yAxis->setRange(0.0, data.densityMax > 0.0 ? data.densityMax * f * 1.12 : 1.0);
+    p->yAxis->setRange(0.0, data.densityMax > 0.0 ? data.densityMax * f * 1.35 : 1.0);
 
     m_note->setText(data.note);
     m_note->setVisible(!data.note.isEmpty());

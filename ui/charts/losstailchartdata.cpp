@@ -97,10 +97,23 @@ LossTailChartData buildLossTailChartData(const RiskReport &report, const LossTai
     const QString days = tr("%n-day", nullptr, d.horizonDays);
     d.varLabel = tr("VaR %1: %2").arg(conf, chartstyle::money(report.figures.var));
     d.esLabel = tr("ES %1: %2").arg(conf, chartstyle::money(report.figures.es));
+    if (d.unit == LossTailUnit::PercentOfValue && report.varFraction && report.esFraction) {
+        d.varLabel += QStringLiteral(" (") + chartstyle::percent(*report.varFraction, 2) + QStringLiteral(")");
+        d.esLabel += QStringLiteral(" (") + chartstyle::percent(*report.esFraction, 2) + QStringLiteral(")");
+    }
     d.xLabel = d.unit == LossTailUnit::Money ? tr("%1 P&L (money; losses to the left)").arg(days)
                                              : tr("%1 P&L (% of portfolio value; losses to the left)").arg(days);
-    d.curveLegend = tr("Model: normal P&L density");
-    d.tailLegend = tr("Loss beyond VaR (%1 chance under the model)").arg(chartstyle::percent(d.tailProbability, 2));
+    if (report.assumptions.model == RiskModel::Normal) {
+        d.curveLegend = tr("Model: normal P&L density");
+        d.tailLegend = tr("Loss beyond VaR (%1 chance under the model)").arg(chartstyle::percent(d.tailProbability, 2));
+    } else {
+        // Other models give VaR and ES from another distribution; the curve is only the normal one
+        // with the same mean and spread, so the shaded area need not hold exactly 1 − C.
+        d.curveLegend = tr("Normal curve with the portfolio's mean and spread");
+        d.tailLegend = tr("Loss beyond the model's VaR");
+        d.note = tr("VaR and ES come from the chosen model; the curve is the normal distribution with the same "
+                    "mean and spread, drawn for orientation.");
+    }
 
     if (options.showHistory)
         fillHistogram(report, options, scale, d);
@@ -119,11 +132,12 @@ LossTailChartData buildLossTailChartData(const RiskReport &report, const LossTai
         d.xMin = std::min(d.xMin, d.esMarker - 0.5 * d.model.sd);
     } else {
         const double centre = finite(d.model.mean) ? d.model.mean : 0.0;
-        d.xMin = centre - 1.0;
-        d.xMax = centre + 1.0;
-        if (d.note.isEmpty())
-            d.note = tr("The P&L has no spread over this window, so there is no distribution to draw. "
-                        "VaR is the expected loss alone: %1.").arg(chartstyle::money(report.figures.var));
+        const double half = std::max(1.0, 0.5 * std::abs(centre));
+        d.xMin = centre - half;
+        d.xMax = centre + half;
+        d.note = tr("The P&L has no spread over this window, so there is no distribution to draw: the model expects "
+                    "a P&L of %1 over the horizon for certain, and VaR is %2.")
+                     .arg(chartstyle::signedMoney(report.horizon.mean), chartstyle::money(report.figures.var));
         d.tailBoundary = finite(d.tailBoundary) ? d.tailBoundary : 0.0;
         d.esMarker = finite(d.esMarker) ? d.esMarker : 0.0;
     }

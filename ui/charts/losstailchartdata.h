@@ -10,6 +10,8 @@
 // scaling the model uses for its spread (common practice; the mean term is not rescaled). It is
 // a picture of the data the model was fitted to, not a historical-simulation VaR.
 //
+// With a model other than normal (Assumptions::model) the figures come from that model and the
+// curve is the normal distribution with the same μ_h and σ_h, labelled so; the note says so.
 // Degenerate inputs never produce NaN: with σ_h = 0 there is no curve (hasCurve false) and
 // `note` says why; percent of value is refused (falls back to money, with a note) when V ≤ 0.
 #pragma once

@@ -125,6 +125,12 @@ void TradeoffChart::buildHorizonPlot()
     m_horizonPlot->yAxis->setLabel(tr("VaR (money)"));
     m_horizonPlot->legend->setVisible(true);
     m_horizonPlot->legend->setFont(chartstyle::tickFont());
+    // Two compact rows, so the legend covers little of the lines.
+    m_horizonPlot->legend->setFillOrder(QCPLayoutGrid::foColumnsFirst);
+    m_horizonPlot->legend->setWrap(3);
+    m_horizonPlot->legend->setRowSpacing(0);
+    m_horizonPlot->legend->setColumnSpacing(4);
+    m_horizonPlot->legend->setIconSize(18, 8);
     m_horizonPlot->axisRect()->insetLayout()->setInsetAlignment(0, Qt::AlignTop | Qt::AlignLeft);
 }
 
@@ -159,6 +165,8 @@ void TradeoffChart::buildMapPlot()
     m_scale->axis()->setLabel(tr("VaR (money)"));
     chartstyle::styleAxis(m_scale->axis());
     m_map->setColorScale(m_scale);
+    // The scale hands its gradient to the map, so the gradient is set on the scale.
+    m_scale->setGradient(varGradient());
     // The colour bar lines up with the map's plot area.
     auto *margins = new QCPMarginGroup(m_mapPlot);
     m_mapPlot->axisRect()->setMarginGroup(QCP::msBottom | QCP::msTop, margins);
@@ -206,7 +214,7 @@ void TradeoffChart::fillHorizonPlot()
         QCPGraph *turns = p->addGraph();
         turns->setLineStyle(QCPGraph::lsNone);
         turns->setScatterStyle(QCPScatterStyle(QCPScatterStyle::ssDiamond, chartstyle::rust(), Qt::white, 8));
-        turns->setName(tr("VaR peaks (mean overtakes √H)"));
+        turns->setName(tr("VaR peak"));
         for (const TurningPoint &t : m_data.lineTurns)
             turns->addData(t.horizonDays, t.var);
     }
@@ -222,10 +230,12 @@ void TradeoffChart::fillConfidencePlot()
     p->clearItems();
     const RiskGrid &g = m_data.byConfidence;
     if (auto *title = qobject_cast<QCPTextElement *>(p->plotLayout()->element(0, 0)))
-        title->setText(tr("VaR against confidence at %n trading day(s)", nullptr, m_data.horizonDays));
+        title->setText(m_data.horizonDays == 1 ? tr("VaR against confidence at 1 trading day")
+                                                : tr("VaR against confidence at %1 trading days").arg(m_data.horizonDays));
     const double t0 = confidenceToTailScale(0.90), t1 = confidenceToTailScale(0.999);
-    p->xAxis->setRange(g.confidences.empty() ? t0 : confidenceToTailScale(g.confidences.front()),
-                       g.confidences.empty() ? t1 : confidenceToTailScale(g.confidences.back()));
+    // A hair of room at both ends keeps the end ticks (90%, 99.9%) from being dropped by rounding.
+    p->xAxis->setRange((g.confidences.empty() ? t0 : confidenceToTailScale(g.confidences.front())) - 1e-6,
+                       (g.confidences.empty() ? t1 : confidenceToTailScale(g.confidences.back())) + 0.04);
     if (!m_data.valid || g.confidences.empty() || g.horizons.empty()) {
         p->replot(QCustomPlot::rpQueuedReplot);
         return;
@@ -271,7 +281,7 @@ void TradeoffChart::fillMapPlot()
     const double t0 = m_data.mapTail.empty() ? 1.0 : m_data.mapTail.front();
     const double t1 = m_data.mapTail.empty() ? 3.0 : m_data.mapTail.back();
     p->xAxis->setRange(1.0, n);
-    p->yAxis->setRange(t0, t1);
+    p->yAxis->setRange(t0 - 1e-6, t1 + 1e-6);
     if (!m_data.valid || nx < 2 || ny < 2) {
         m_map->data()->clear();
         m_map->setVisible(false);
@@ -316,9 +326,9 @@ void TradeoffChart::fillMapPlot()
         ridge->setData(xs, ys);
         const ContourPoint mid = m_data.ridge[m_data.ridge.size() / 2];
         QCPItemText *label = note(p, tr("VaR peaks here:\nlonger horizons add more\nexpected gain than spread"),
-                                  (mid.x > 0.6 * n ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
+                                  (mid.x > 0.45 * n ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
         label->setColor(chartstyle::rust().darker(140));
-        label->position->setCoords(mid.x + (mid.x > 0.6 * n ? -4.0 : 4.0), mid.y);
+        label->position->setCoords(mid.x + (mid.x > 0.45 * n ? -4.0 : 4.0), mid.y);
     }
 
     // The current setting: a ring with a cross, readable on light and dark cells.
@@ -330,7 +340,8 @@ void TradeoffChart::fillMapPlot()
     nowInk->setLineStyle(QCPGraph::lsNone);
     nowInk->setScatterStyle(QCPScatterStyle(QCPScatterStyle::ssCrossCircle, QPen(chartstyle::rust().darker(130), 1.6), Qt::NoBrush, 13));
     nowInk->addData(m_data.horizonDays, confidenceToTailScale(m_data.confidence));
-    QCPItemText *label = note(p, tr("now: %n day(s), %1", nullptr, m_data.horizonDays).arg(chartstyle::confidenceText(m_data.confidence)),
+    const QString days = m_data.horizonDays == 1 ? tr("1 day") : tr("%1 days").arg(m_data.horizonDays);
+    QCPItemText *label = note(p, tr("now: %1, %2").arg(days, chartstyle::confidenceText(m_data.confidence)),
                               (m_data.horizonDays > 0.6 * n ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignBottom);
     label->position->setCoords(m_data.horizonDays + (m_data.horizonDays > 0.6 * n ? -3.0 : 3.0),
                                confidenceToTailScale(m_data.confidence) + 0.03);

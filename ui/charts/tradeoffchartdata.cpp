@@ -13,14 +13,6 @@ namespace {
 
 QString tr(const char *text) { return QCoreApplication::translate("TradeoffChart", text); }
 
-double lineLength(const ContourLine &line)
-{
-    double length = 0.0;
-    for (std::size_t k = 1; k < line.size(); ++k)
-        length += std::hypot(line[k].x - line[k - 1].x, line[k].y - line[k - 1].y);
-    return length;
-}
-
 } // namespace
 
 double confidenceToTailScale(double confidence) { return -std::log10(1.0 - confidence); }
@@ -101,10 +93,19 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
         c.lines = contourLines(xs, d.mapTail, d.map.var, level);
         if (c.lines.empty())
             continue;
-        const auto longest = std::max_element(c.lines.cbegin(), c.lines.cend(),
-                                               [](const ContourLine &l, const ContourLine &r) { return lineLength(l) < lineLength(r); });
-        // Label a little past the middle of the longest line, where it is usually clear of the edges.
-        c.labelAt = (*longest)[longest->size() * 3 / 5];
+        // Label each level at the point of its lines farthest from the map's edges (in units of
+        // the axis spans), so the label is never cut off by the frame.
+        const double x0 = xs.front(), x1 = xs.back(), y0 = d.mapTail.front(), y1 = d.mapTail.back();
+        double best = -1.0;
+        for (const ContourLine &line : c.lines)
+            for (const ContourPoint &pt : line) {
+                const double room = std::min({(pt.x - x0) / (x1 - x0), (x1 - pt.x) / (x1 - x0),
+                                              (pt.y - y0) / (y1 - y0), (y1 - pt.y) / (y1 - y0)});
+                if (room > best) {
+                    best = room;
+                    c.labelAt = pt;
+                }
+            }
         d.contours.push_back(std::move(c));
     }
 

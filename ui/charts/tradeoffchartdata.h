@@ -37,7 +37,7 @@ struct ContourLevel {
     double level = 0.0;         // money
     QString label;              // the level in the user's locale
     std::vector<ContourLine> lines;
-    ContourPoint labelAt;       // where to write the label (on the longest line)
+    ContourPoint labelAt;       // where to write the label: on a line, as far from the map's edges as it gets
 };
 
 struct TurningPoint {
