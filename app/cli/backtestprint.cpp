@@ -40,7 +40,6 @@ std::string probability(double p)
     return buffer;
 }
 
-bool rejects(const LikelihoodRatio &lr) { return lr.pValue < verdictTestSize; }
 
 std::string modelWords(const Assumptions &a)
 {
@@ -67,31 +66,30 @@ std::string methodWords(const Assumptions &a)
     return s;
 }
 
-std::string kupiecVerdict(const BacktestResult &r)
+std::string kupiecVerdict(const BacktestResult &r, const BacktestVerdict &v)
 {
     const std::string c = level(r.assumptions.confidence);
-    if (!rejects(r.kupiec))
+    if (!v.kupiecRejected)
         return "not rejected: the number of exceptions is consistent with " + c + " VaR";
-    if (r.exceptions > r.expectedExceptions)
+    if (v.tooManyExceptions)
         return "rejected: too many exceptions, the model understates the risk";
     return "rejected: too few exceptions, the model overstates the risk";
 }
 
-std::string independenceVerdict(const BacktestResult &r)
+std::string independenceVerdict(const BacktestResult &r, const BacktestVerdict &v)
 {
-    const auto &c = r.christoffersen;
-    if (c.transitions.total() == 0)
+    if (r.christoffersen.transitions.total() == 0)
         return "not informative: no day-to-day transitions";
-    if (!rejects(c.independence))
+    if (!v.independenceRejected)
         return "not rejected: no sign that exceptions cluster in time";
-    if (c.pi1 > c.pi0)
+    if (v.clustering)
         return "rejected: an exception makes another the next day more likely (clustering)";
     return "rejected: exceptions are spread more evenly than chance would give";
 }
 
-std::string coverageVerdict(const BacktestResult &r)
+std::string coverageVerdict(const BacktestVerdict &v)
 {
-    if (!rejects(r.christoffersen.conditionalCoverage))
+    if (!v.coverageRejected)
         return "not rejected: rate and timing of exceptions together are consistent";
     return "rejected: rate and timing of exceptions together are not consistent";
 }
@@ -165,18 +163,19 @@ std::string backtestText(const BacktestPrintInput &in)
            + " for a correct model;\n                    green below 95%, yellow below 99.99%, red from there\n\n";
 
     const auto &ch = r.christoffersen;
+    const BacktestVerdict verdict = verdictAt(r, verdictTestSize);
     out += pad("Tests at " + level(verdictTestSize) + " size", 32, false) + pad("statistic", 10, true)
            + pad("p-value", 11, true) + "   verdict\n";
     out += pad("  Kupiec proportion of failures", 32, false) + pad(statistic(r.kupiec.lr), 10, true)
-           + pad(probability(r.kupiec.pValue), 11, true) + "   " + kupiecVerdict(r) + "\n";
+           + pad(probability(r.kupiec.pValue), 11, true) + "   " + kupiecVerdict(r, verdict) + "\n";
     out += pad("  Christoffersen independence", 32, false) + pad(statistic(ch.independence.lr), 10, true)
-           + pad(probability(ch.independence.pValue), 11, true) + "   " + independenceVerdict(r) + "\n";
+           + pad(probability(ch.independence.pValue), 11, true) + "   " + independenceVerdict(r, verdict) + "\n";
     out += pad("  Conditional coverage", 32, false) + pad(statistic(ch.conditionalCoverage.lr), 10, true)
-           + pad(probability(ch.conditionalCoverage.pValue), 11, true) + "   " + coverageVerdict(r) + "\n";
+           + pad(probability(ch.conditionalCoverage.pValue), 11, true) + "   " + coverageVerdict(verdict) + "\n";
     out += "  Day-to-day transitions n00 " + std::to_string(ch.transitions.n00) + ", n01 " + std::to_string(ch.transitions.n01)
            + ", n10 " + std::to_string(ch.transitions.n10) + ", n11 " + std::to_string(ch.transitions.n11) + "\n\n";
 
-    const bool passed = !rejects(r.kupiec) && !rejects(ch.independence) && !rejects(ch.conditionalCoverage);
+    const bool passed = verdict.passed;
     std::string words = "In words: on " + std::to_string(r.observations) + " days the loss exceeded the " + c + " VaR "
            + std::to_string(r.exceptions) + (r.exceptions == 1 ? " time" : " times") + ", against about "
            + fixed(r.expectedExceptions, 1) + " expected. ";

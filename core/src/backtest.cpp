@@ -97,9 +97,9 @@ Status checkBacktestModel(RiskModel model)
 {
     // Written as a test rather than a switch so that models added to RiskModel are refused here
     // until the backtest learns them, instead of failing to compile.
-    if (model == RiskModel::Normal || model == RiskModel::StudentT || model == RiskModel::CornishFisher
-        || model == RiskModel::Historical)
-        return Done{};
+    for (RiskModel supported : backtestModels())
+        if (model == supported)
+            return Done{};
     return fieldError(ErrorKind::Assumption, "model",
                       "the backtest does not support the '" + std::string(toName(model))
                           + "' model yet; it supports 'normal', 'student-t', 'cornish-fisher' and 'historical'");
@@ -249,6 +249,30 @@ Result<BacktestResult> runBacktest(const BacktestRequest &request, std::stop_tok
     if (result.christoffersen.transitions.total() == 0)
         result.warnings.push_back("a single tested day has no day-to-day transitions: the independence test is not informative");
     return result;
+}
+
+Result<BacktestResult> runBacktest(const BacktestRequest &request, const RunControl &control)
+{
+    return runBacktest(request, control.stop, control.progress);
+}
+
+std::vector<RiskModel> backtestModels()
+{
+    return {RiskModel::Normal, RiskModel::StudentT, RiskModel::CornishFisher, RiskModel::Historical};
+}
+
+BacktestVerdict verdictAt(const BacktestResult &r, double testSize)
+{
+    assert(testSize > 0.0 && testSize < 1.0);
+    BacktestVerdict v;
+    v.testSize = testSize;
+    v.kupiecRejected = r.kupiec.pValue < testSize;
+    v.tooManyExceptions = r.exceptions > r.expectedExceptions;
+    v.independenceRejected = r.christoffersen.transitions.total() > 0 && r.christoffersen.independence.pValue < testSize;
+    v.clustering = r.christoffersen.pi1 > r.christoffersen.pi0;
+    v.coverageRejected = r.christoffersen.conditionalCoverage.pValue < testSize;
+    v.passed = !v.kupiecRejected && !v.independenceRejected && !v.coverageRejected;
+    return v;
 }
 
 } // namespace tailwise

@@ -296,6 +296,15 @@ void TestBacktest::statisticsOfGivenSequence()
     TW_CLOSE_REL(r.christoffersen.independence.lr, 0.2365714793, 1e-8);  // Christoffersen 1998
     TW_CLOSE_REL(r.christoffersen.conditionalCoverage.lr, 3.642811921, 1e-8);
     TW_CLOSE_REL(r.christoffersen.conditionalCoverage.pValue, 0.161798, 1e-5);
+
+    // Verdicts from those p-values (Kupiec 0.0649503, LR_ind 0.626693, LR_cc 0.161798; SciPy, §7).
+    const BacktestVerdict at5 = verdictAt(r, 0.05);
+    QVERIFY(!at5.kupiecRejected && !at5.independenceRejected && !at5.coverageRejected && at5.passed);
+    QVERIFY(at5.clustering); // π1 = 0.2 > π0 = 0.117647
+    const BacktestVerdict at10 = verdictAt(r, 0.10);
+    QVERIFY(at10.kupiecRejected && at10.tooManyExceptions && !at10.coverageRejected && !at10.passed);
+    const BacktestVerdict at20 = verdictAt(r, 0.20);
+    QVERIFY(at20.coverageRejected && !at20.independenceRejected);
 }
 
 void TestBacktest::exceptionRuleIsStrict()
@@ -391,8 +400,9 @@ void TestBacktest::errorsNameTheirField()
 
 void TestBacktest::unsupportedModelIsRefused()
 {
-    for (RiskModel m : {RiskModel::Normal, RiskModel::StudentT, RiskModel::CornishFisher, RiskModel::Historical})
+    for (RiskModel m : backtestModels())
         QVERIFY(checkBacktestModel(m).ok());
+    QCOMPARE(static_cast<int>(backtestModels().size()), 4);
     // Any other model the core knows is refused up front, naming the field and the model.
     for (const char *name : {"monte-carlo"}) {
         const auto model = parseRiskModel(name);
@@ -434,6 +444,18 @@ void TestBacktest::stopAndProgress()
     });
     QVERIFY(!stopped.ok());
     QCOMPARE(stopped.error().kind, ErrorKind::Cancelled);
+    // The RunControl form, as the other long computations take it.
+    std::stop_source early;
+    early.request_stop();
+    RunControl control;
+    control.stop = early.get_token();
+    const auto cancelled = runBacktest(request, control);
+    QVERIFY(!cancelled.ok());
+    QCOMPARE(cancelled.error().kind, ErrorKind::Cancelled);
+    RunControl plain;
+    const auto same = runBacktest(request, plain);
+    QVERIFY(same.ok());
+    QCOMPARE(same.value().exceptions, r.value().exceptions);
 }
 
 QTEST_APPLESS_MAIN(TestBacktest)

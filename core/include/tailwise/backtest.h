@@ -57,6 +57,7 @@
 #include "tailwise/prices.h"
 #include "tailwise/result.h"
 #include "tailwise/rollingmoments.h"
+#include "tailwise/runcontrol.h"
 
 #include <Eigen/Core>
 
@@ -99,6 +100,25 @@ using ProgressCallback = std::function<void(double fraction)>;
 
 Result<BacktestResult> runBacktest(const BacktestRequest &request, std::stop_token stop = {},
                                    const ProgressCallback &progress = {});
+// The same, steered like the other long computations (runcontrol.h; `threads` is not used: one
+// backtest runs on the calling thread — run several models on several threads to compare them).
+Result<BacktestResult> runBacktest(const BacktestRequest &request, const RunControl &control);
+
+// The models runBacktest() accepts, in the order a comparison shows them.
+std::vector<RiskModel> backtestModels();
+
+// The tests' verdicts at a test size (e.g. 0.05): a test rejects when its p-value is below it.
+struct BacktestVerdict {
+    double testSize = 0.05;
+    bool kupiecRejected = false;
+    bool tooManyExceptions = false;   // x > expected (meaningful when kupiecRejected)
+    bool independenceRejected = false;
+    bool clustering = false;          // π1 > π0: an exception makes the next more likely
+    bool coverageRejected = false;    // conditional coverage, χ²(2)
+    bool passed = false;              // no test rejects (the zone is reported apart)
+};
+// Precondition: 0 < testSize < 1.
+BacktestVerdict verdictAt(const BacktestResult &result, double testSize);
 
 // Statistics of a given series of days (exceptions already decided): fills observations,
 // exceptions, expectedExceptions, kupiec, christoffersen and zone. Precondition: days not empty.
