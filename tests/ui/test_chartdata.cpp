@@ -272,6 +272,12 @@ void TestChartData::tradeoffEqualsNormalRiskGrid()
     QVERIFY(d.map.var == map.var);
     QVERIFY(d.byHorizon.var == normalRiskGrid(r.oneDay, d.byHorizon.horizons, {0.95, 0.975, 0.99, 0.995, 0.999}).var);
     QVERIFY(d.byConfidence.var == normalRiskGrid(r.oneDay, {10}, d.byConfidence.confidences).var);
+    // Every cell is core's normal VaR at that whole-day horizon (parametric.h), to the bit.
+    for (std::size_t h : {std::size_t{0}, std::size_t{9}, std::size_t{251}})
+        for (std::size_t c : {std::size_t{0}, d.map.confidences.size() / 2, d.map.confidences.size() - 1}) {
+            const double days = d.map.horizons[h];
+            QVERIFY(d.map.varAt(h, c) == normalVarEs({days * r.oneDay.mean, std::sqrt(days) * r.oneDay.sd}, d.map.confidences[c]).var);
+        }
     // The line at 99% passes through the report's own figure at the current horizon.
     CHECK_CLOSE(d.byHorizon.varAt(9, 2), r.figures.var, 1e-9 * r.figures.var);
     // Map rows are even on the tail scale −log10(1 − C).
