@@ -2,6 +2,7 @@
 // Exit status: 0 success, 1 bad input data, 2 bad usage.
 #include "backtestcommand.h"
 #include "reportprint.h"
+#include "varextras.h"
 #include "varoptions.h"
 #include "workbookinput.h"
 #include "packcommand.h"
@@ -65,10 +66,13 @@ int runVar(const std::vector<std::string> &args)
         return exitOk;
     }
     Result<RiskReport> report = Error{};
+    Result<cli::ReportExtras> extras = cli::ReportExtras{};
     if (req.single) {
         report = computeSinglePositionRisk(*req.single, req.assumptions);
     } else if (workbook) {
         report = computeRisk(workbook->prices, workbook->holdings, req.assumptions);
+        if (report)
+            extras = cli::computeExtras(req.models, workbook->prices, workbook->holdings, req.assumptions);
     } else {
         auto prices = readPriceCsv(req.pricesPath);
         if (!prices)
@@ -77,11 +81,16 @@ int runVar(const std::vector<std::string> &args)
         if (!holdings)
             return fail(exitBadInput, holdings.error().message);
         report = computeRisk(prices.value(), holdings.value(), req.assumptions);
+        if (report)
+            extras = cli::computeExtras(req.models, prices.value(), holdings.value(), req.assumptions);
     }
     if (!report)
         return fail(exitBadInput, messageFor(report.error()));
+    if (!extras)
+        return fail(exitBadInput, messageFor(extras.error()));
     const bool single = req.single.has_value();
-    const std::string text = req.json ? cli::reportJson(report.value(), single) : cli::reportText(report.value(), single);
+    const std::string text = req.json ? cli::reportJson(report.value(), single, extras.value())
+                                      : cli::reportText(report.value(), single, extras.value());
     std::fputs(text.c_str(), stdout);
     if (req.json)
         for (const auto &w : report.value().warnings)

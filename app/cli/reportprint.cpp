@@ -1,5 +1,6 @@
 #include "reportprint.h"
 
+#include "modelprint.h"
 #include "numbertext.h"
 
 #include "tailwise/json.h"
@@ -44,7 +45,7 @@ std::string methodWords(const RiskReport &r)
 
 } // namespace
 
-std::string reportText(const RiskReport &r, bool single)
+std::string reportText(const RiskReport &r, bool single, const ReportExtras &extras)
 {
     const auto &a = r.assumptions;
     std::string out;
@@ -60,6 +61,7 @@ std::string reportText(const RiskReport &r, bool single)
                + " to " + toIso(r.windowLast) + "\n";
         out += "Method              " + methodWords(r) + "\n";
     }
+    out += modelText(r);
     out += "\n";
     out += "Value-at-Risk       " + pad(money(r.figures.var), 16, true) + "   " + percent(r.varFraction) + " of value\n";
     out += "Expected Shortfall  " + pad(money(r.figures.es), 16, true) + "   " + percent(r.esFraction) + " of value\n";
@@ -75,7 +77,10 @@ std::string reportText(const RiskReport &r, bool single)
            + money(r.figures.es) + ".\n";
 
     if (!single && !r.holdings.empty()) {
-        out += "\nContributions (Euler allocation; the components add up to the portfolio VaR)\n";
+        out += r.model.used == RiskModel::Normal
+                   ? "\nContributions (Euler allocation; the components add up to the portfolio VaR)\n"
+                   : "\nContributions (normal-model Euler allocation, for comparison: they add up to the normal VaR, "
+                     "not to the " + std::string(toName(r.model.used)) + " VaR above)\n";
         std::size_t nameWidth = 5;
         for (const auto &h : r.holdings)
             nameWidth = std::max(nameWidth, h.asset.size());
@@ -95,19 +100,20 @@ std::string reportText(const RiskReport &r, bool single)
                    + pad(money(h->standaloneVar), 16, true) + "\n";
         }
     }
+    out += extrasText(extras);
     if (!r.warnings.empty()) {
         out += "\nWarnings\n";
         for (const auto &w : r.warnings)
             out += "  - " + w + "\n";
     }
     out += "\nCautions: VaR is not the worst case - losses beyond it happen, on about "
-           + confidenceText(1.0 - a.confidence) + " of horizons if the model holds. The normal model understates fat "
-           "tails. Figures are estimates from past data under the model's assumptions, for information only and not "
+           + confidenceText(1.0 - a.confidence) + " of horizons if the model holds. " + modelCaution(r.model.used)
+           + " Figures are estimates from past data under the model's assumptions, for information only and not "
            "advice; regulatory use follows local rules and approved models.\n";
     return out;
 }
 
-std::string reportJson(const RiskReport &r, bool single)
+std::string reportJson(const RiskReport &r, bool single, const ReportExtras &extras)
 {
     const auto &a = r.assumptions;
     JsonWriter j;
@@ -116,6 +122,7 @@ std::string reportJson(const RiskReport &r, bool single)
     j.key("confidence").value(a.confidence);
     j.key("horizon_days").value(a.horizonDays);
     j.key("model").value(toName(a.model));
+    writeModelJson(j, r);
     j.key("horizon_mean_money").value(r.horizon.mean);
     j.key("horizon_sd_money").value(r.horizon.sd);
     j.key("var").value(r.figures.var);
@@ -126,6 +133,7 @@ std::string reportJson(const RiskReport &r, bool single)
     j.key("diversification_benefit").value(r.diversificationBenefit);
     j.key("assumptions").beginObject();
     j.key("days_per_year").value(a.daysPerYear);
+    writeModelAssumptionsJson(j, a);
     if (single) {
         j.key("input").value("single-position");
     } else {
@@ -156,6 +164,7 @@ std::string reportJson(const RiskReport &r, bool single)
         j.endObject();
     }
     j.endArray();
+    writeExtrasJson(j, extras);
     j.key("warnings").beginArray();
     for (const auto &w : r.warnings)
         j.value(w);

@@ -42,6 +42,8 @@ std::string optionForField(const std::string &field)
         {"confidence", "--confidence"}, {"horizon", "--horizon"}, {"days-per-year", "--days-per-year"},
         {"window", "--window"},         {"lambda", "--lambda"},   {"value", "--value"},
         {"volatility", "--volatility"}, {"drift", "--drift"},
+        {"dof", "--dof"},               {"simulations", "--simulations"}, {"model", "--model"},
+        {"trade", "--trade"},
     };
     const auto it = names.find(field);
     return it == names.end() ? field : it->second;
@@ -64,6 +66,17 @@ Result<VarRequest> parseVarOptions(const std::vector<std::string> &args, const A
         }
         if (option.rfind("--", 0) != 0)
             return usage(option, "unexpected argument: options start with '--' (see tailwise-cli var --help)");
+        if (isModelFlag(option)) {
+            request.models.worstDays = true;
+            continue;
+        }
+        if (isModelOption(option)) {
+            if (i + 1 >= args.size())
+                return usage(option, "expected a value after the option");
+            if (auto ok = applyModelOption(option, args[++i], request.assumptions, request.models); !ok)
+                return ok.error();
+            continue;
+        }
         static const char *known[] = {"--prices", "--holdings", "--workbook", "--value", "--volatility", "--drift",
                                       "--confidence", "--horizon", "--days-per-year", "--window", "--returns",
                                       "--estimator", "--lambda", "--mean", "--model"};
@@ -143,11 +156,6 @@ Result<VarRequest> parseVarOptions(const std::vector<std::string> &args, const A
             if (!v)
                 return usage(option, "expected 'zero' or 'sample', found \"" + text + "\"");
             a.mean = *v;
-        } else if (option == "--model") {
-            const auto v = parseRiskModel(text);
-            if (!v)
-                return usage(option, "expected 'normal', found \"" + text + "\"");
-            a.model = *v;
         }
     }
     if (auto ok = validate(request.assumptions); !ok)
@@ -155,6 +163,8 @@ Result<VarRequest> parseVarOptions(const std::vector<std::string> &args, const A
 
     const bool fileMode = !request.pricesPath.empty() || !request.holdingsPath.empty();
     const bool singleMode = value || volatility || drift;
+    if (auto ok = checkModelOptions(request.assumptions, request.models, singleMode); !ok)
+        return ok.error();
     if (!request.workbookPath.empty()) {
         if (fileMode || singleMode)
             return usage("--workbook", "give either --workbook, or --prices and --holdings, or --value and --volatility");
@@ -208,8 +218,10 @@ Assumptions:
                        (exponentially weighted, recent days count more)
   --lambda L           EWMA decay, 0 < L < 1 (default 0.94, about 17 days' memory)
   --mean KIND          daily mean: 'zero' (default) or 'sample' (estimated from the window)
-  --model NAME         'normal' (variance-covariance, default)
+  --model NAME         normal (default), student-t, cornish-fisher, historical or
+                       monte-carlo: see Models below
 
+)" + modelHelpText() + R"(
 Output:
   --json               one JSON object instead of the readable report
   --help               this text

@@ -2,6 +2,8 @@
 // what was expected; nothing is read from disk here.
 #pragma once
 
+#include "modeloptions.h"
+
 #include "tailwise/assumptions.h"
 #include "tailwise/parametric.h"
 #include "tailwise/result.h"
@@ -18,6 +20,7 @@ struct VarRequest {
     std::string workbookPath; // --workbook: prices, holdings and assumptions from a saved workbook
     std::optional<SinglePosition> single; // --value/--volatility[/--drift] mode
     Assumptions assumptions;
+    ModelRequest models; // --model parameters typed, --trade, --scenario, --worst-days
     bool json = false;
     bool help = false;
 };

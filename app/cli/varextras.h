@@ -1,0 +1,28 @@
+// What the `var` command computes besides the risk report: a what-if of the proposed trades and
+// the stress outcomes, both from core (whatif.h, stress.h).
+#pragma once
+
+#include "modeloptions.h"
+
+#include "tailwise/holdings.h"
+#include "tailwise/prices.h"
+#include "tailwise/stress.h"
+#include "tailwise/whatif.h"
+
+#include <optional>
+#include <vector>
+
+namespace tailwise::cli {
+
+struct ReportExtras {
+    std::vector<Trade> trades;
+    std::optional<WhatIf> whatIf;
+    std::optional<std::vector<StressOutcome>> stress;
+};
+
+// Reads the scenario files and runs the what-if and the stress. Errors: a scenario file's error
+// (naming file, line and column), an unknown traded asset, or an error of the risk computation.
+Result<ReportExtras> computeExtras(const ModelRequest &request, const PriceHistory &prices, const Holdings &holdings,
+                                   const Assumptions &assumptions);
+
+} // namespace tailwise::cli
