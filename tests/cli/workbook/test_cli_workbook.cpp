@@ -56,6 +56,7 @@ private slots:
     void sampleIsRebuiltByTheDocumentedCommand();
     void optionsOverrideTheStoredAssumptions();
     void packStoresEveryOptionGiven();
+    void packStoresTheModelOptions();
     void refusesBadWorkbooks();
     void packRefusals();
 };
@@ -154,6 +155,38 @@ void TestCliWorkbook::packStoresEveryOptionGiven()
     QCOMPARE(a.value(QStringLiteral("days-per-year")).toInt(), 250);
     QCOMPARE(a.value(QStringLiteral("returns")).toString(), QStringLiteral("log"));
     QCOMPARE(a.value(QStringLiteral("mean")).toString(), QStringLiteral("sample"));
+}
+
+void TestCliWorkbook::packStoresTheModelOptions()
+{
+    // Each model with its parameters: stored by pack, used by var --workbook exactly as the same
+    // options with the CSV files; then one parameter overridden on the command line.
+    const QList<QStringList> models = {
+        {"--model", "student-t", "--dof", "5.5"},
+        {"--model", "student-t"},
+        {"--model", "cornish-fisher", "--horizon", "5"},
+        {"--model", "historical", "--hs-horizon", "overlapping", "--horizon", "10"},
+        {"--model", "monte-carlo", "--simulations", "20000", "--seed", "7", "--dof", "6"},
+    };
+    QTemporaryDir dir;
+    for (const QStringList &options : models) {
+        const QString out = dir.filePath(QStringLiteral("model.tailwise"));
+        const Run pack = cli(QStringList{"pack"} + csvInputs() + options + QStringList{"--out", out});
+        TW_RUN_OK(pack);
+        const Run fromWorkbook = cli({"var", "--workbook", out, "--json"});
+        TW_RUN_OK(fromWorkbook);
+        const Run fromCsv = cli(QStringList{"var"} + csvInputs() + options + QStringList{"--json"});
+        TW_RUN_OK(fromCsv);
+        QVERIFY2(fromWorkbook.out == fromCsv.out, qPrintable(options.join(QLatin1Char(' '))));
+    }
+    const QString mc = dir.filePath(QStringLiteral("mc.tailwise"));
+    TW_RUN_OK(cli(QStringList{"pack"} + csvInputs()
+                  + QStringList{"--model", "monte-carlo", "--simulations", "20000", "--seed", "7", "--out", mc}));
+    const Run reseeded = cli({"var", "--workbook", mc, "--seed", "8", "--json"});
+    TW_RUN_OK(reseeded);
+    const Run csv8 = cli(QStringList{"var"} + csvInputs()
+                         + QStringList{"--model", "monte-carlo", "--simulations", "20000", "--seed", "8", "--json"});
+    QCOMPARE(reseeded.out, csv8.out);
 }
 
 void TestCliWorkbook::refusesBadWorkbooks()
