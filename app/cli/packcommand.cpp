@@ -65,8 +65,9 @@ int runPackCommand(const std::vector<std::string> &args)
             (option == "--title" ? title : out) = args[++i];
             continue;
         }
+        // Outputs and one-off questions (what-if trades, stress) are not part of a workbook.
         if (option == "--json" || option == "--workbook" || option == "--value" || option == "--volatility"
-            || option == "--drift")
+            || option == "--drift" || option == "--trade" || option == "--scenario" || option == "--worst-days")
             return fail(exitUsage, option + ": not an option of pack (see tailwise-cli pack --help)");
         varArgs.push_back(option);
     }
