@@ -26,6 +26,16 @@ Holdings byValue(const RiskReport &report, const Eigen::VectorXd &exposures)
     return out;
 }
 
+// The k-th of `runs` computations reports into its own share of the caller's progress bar, so
+// the whole what-if stays non-decreasing.
+RunControl stage(const RunControl &control, int k, int runs)
+{
+    RunControl part = control;
+    if (control.progress)
+        part.progress = [&control, k, runs](double f) { control.progress((k + f) / runs); };
+    return part;
+}
+
 } // namespace
 
 Result<Holdings> applyTrades(const Holdings &holdings, std::span<const Trade> trades, const PriceHistory &prices)
@@ -81,10 +91,11 @@ Result<WhatIf> whatIf(const PriceHistory &prices, const Holdings &holdings, cons
     }
     WhatIf out;
     out.holdingsAfter = after.value();
-    auto beforeReport = computeRisk(prices, before, assumptions, control);
+    const int runs = assumptions.model == RiskModel::Normal ? 2 : 4;
+    auto beforeReport = computeRisk(prices, before, assumptions, stage(control, 0, runs));
     if (!beforeReport)
         return beforeReport.error();
-    auto afterReport = computeRisk(prices, after.value(), assumptions, control);
+    auto afterReport = computeRisk(prices, after.value(), assumptions, stage(control, 1, runs));
     if (!afterReport)
         return afterReport.error();
     out.before = std::move(beforeReport).value();
@@ -103,10 +114,11 @@ Result<WhatIf> whatIf(const PriceHistory &prices, const Holdings &holdings, cons
     } else {
         constexpr double eps = 1e-4;
         const Eigen::VectorXd &e = out.before.exposures;
-        auto up = computeRisk(prices, byValue(out.before, e + eps * out.exposureChange), assumptions, control);
+        auto up = computeRisk(prices, byValue(out.before, e + eps * out.exposureChange), assumptions, stage(control, 2, runs));
         if (!up)
             return up.error();
-        auto down = computeRisk(prices, byValue(out.before, e - eps * out.exposureChange), assumptions, control);
+        auto down = computeRisk(prices, byValue(out.before, e - eps * out.exposureChange), assumptions,
+                                stage(control, 3, runs));
         if (!down)
             return down.error();
         // The directional derivative is all the estimate needs: put it on the direction itself.
@@ -118,6 +130,8 @@ Result<WhatIf> whatIf(const PriceHistory &prices, const Holdings &holdings, cons
                              + " VaR along the trade (step 1e-4 of the trade)";
     }
     out.figures = whatIfFigures(out.before.figures.var, out.after.figures.var, gradient, out.exposureChange);
+    if (control.progress)
+        control.progress(1.0);
     return out;
 }
 

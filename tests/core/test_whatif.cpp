@@ -168,6 +168,18 @@ private slots:
         const double cacPrice = prices.prices(prices.dayCount() - 1, prices.assetIndex("CAC"));
         TW_CLOSE_REL(w.value().exposureChange(3), 30.0 * cacPrice, 1e-14);
 
+        // Monte Carlo what-if: progress over its four runs never goes back, and ends at 1.
+        Assumptions mc;
+        mc.model = RiskModel::MonteCarlo;
+        mc.simulations = 20000;
+        std::vector<double> seen;
+        RunControl control;
+        control.progress = [&](double f) { seen.push_back(f); };
+        QVERIFY(whatIf(prices, euHoldings(), mc, add, control).ok());
+        for (std::size_t i = 1; i < seen.size(); ++i)
+            QVERIFY2(seen[i] >= seen[i - 1], qPrintable(QStringLiteral("%1 then %2").arg(seen[i - 1]).arg(seen[i])));
+        QCOMPARE(seen.back(), 1.0);
+
         const std::vector<Trade> unknown = {{"NIKKEI", 1}};
         auto bad = whatIf(prices, euHoldings(), a, unknown);
         QVERIFY(!bad.ok());

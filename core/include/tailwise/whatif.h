@@ -15,6 +15,8 @@
 // Both portfolios are computed on the same list of assets (the holdings plus any newly traded
 // asset at zero quantity), so a Monte Carlo run uses the same draws before and after (common
 // random numbers). A trade that leaves a quantity at zero keeps the row with quantity zero.
+// `control` reaches every run (2 for the normal model, 4 otherwise); progress covers them all and
+// never goes back. Run a Monte Carlo what-if off the GUI thread.
 // Errors: Reference (field "trade") for an asset the price history lacks; Value for a non-finite
 // change; and any error of computeRisk.
 #pragma once
