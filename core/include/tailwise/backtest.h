@@ -23,7 +23,7 @@
 // holding, while the backtest values each past day at its own close.
 //
 // Estimates roll incrementally (rollingmoments.h): each day adds the newest return and drops the
-// oldest; nothing is refitted from scratch except the periodic exact re-synchronisation.
+// oldest; nothing is refitted from scratch except the exact re-synchronisations described there.
 //
 // Models plug in through forecastOneDayVar(), each as `tailwise-cli var` computes its one-day VaR,
 // with σ_t = √(e_tᵀ Σ_t e_t), μ_t = e_tᵀ μ_t from the rolling estimates and p_s = e_t · r_s the
@@ -40,10 +40,10 @@
 // Error whose field is "model", as any model the backtest does not support.
 //
 // Assumptions used: window (required, 2 ≤ W < number of returns), confidence, returns, estimator,
-// lambda, mean, model. The horizon and days-per-year do not apply (a one-day backtest); a horizon
+// lambda, mean, model, dof (student-t). The horizon and days-per-year do not apply (a one-day backtest); a horizon
 // other than one day is noted in the warnings.
 //
-// Errors: Assumption (field "window", "confidence", "lambda", "model"), InsufficientData (field
+// Errors: Assumption (field "window", "confidence", "lambda", "dof", "model"), InsufficientData (field
 // "window" when no day is left to test; "holdings" when there are none), Reference (a holding
 // whose asset the history lacks), Numerical (a non-finite figure), Cancelled (stop requested).
 // Long runs take a std::stop_token (checked every day) and a progress callback (fraction done in
