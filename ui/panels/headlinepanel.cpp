@@ -1,0 +1,163 @@
+#include "headlinepanel.h"
+
+#include "document/workbook.h"
+#include "localnumbers.h"
+
+#include "tailwise/risk.h"
+
+#include <QFrame>
+#include <QGridLayout>
+#include <QHBoxLayout>
+#include <QLocale>
+#include <QLabel>
+#include <QVBoxLayout>
+
+namespace tailwise::ui {
+
+namespace {
+
+QLabel *makeLabel(const QString &objectName, QWidget *parent, double scale = 1.0, bool bold = false)
+{
+    auto *label = new QLabel(parent);
+    label->setObjectName(objectName);
+    QFont font = label->font();
+    if (scale != 1.0)
+        font.setPointSizeF(font.pointSizeF() * scale);
+    font.setBold(bold);
+    label->setFont(font);
+    label->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    return label;
+}
+
+// One figure: a caption above the money amount and its share of value.
+QWidget *figureBlock(const QString &caption, const QString &tip, QLabel *money, QLabel *share, QWidget *parent)
+{
+    auto *box = new QWidget(parent);
+    auto *layout = new QVBoxLayout(box);
+    layout->setContentsMargins(0, 0, 24, 0);
+    layout->setSpacing(0);
+    auto *title = new QLabel(caption, box);
+    title->setToolTip(tip);
+    money->setToolTip(tip);
+    layout->addWidget(title);
+    auto *row = new QHBoxLayout;
+    row->addWidget(money);
+    row->addSpacing(8);
+    row->addWidget(share, 0, Qt::AlignBottom);
+    row->addStretch();
+    layout->addLayout(row);
+    return box;
+}
+
+} // namespace
+
+HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(parent), m_workbook(workbook)
+{
+    m_varMoney = makeLabel(QStringLiteral("varMoney"), this, 1.8, true);
+    m_varShare = makeLabel(QStringLiteral("varShare"), this, 1.1);
+    m_esMoney = makeLabel(QStringLiteral("esMoney"), this, 1.8, true);
+    m_esShare = makeLabel(QStringLiteral("esShare"), this, 1.1);
+    m_value = makeLabel(QStringLiteral("portfolioValue"), this, 1.8);
+    auto *valueShare = new QLabel(this);
+
+    m_figures = new QWidget(this);
+    auto *figures = new QHBoxLayout(m_figures);
+    figures->setContentsMargins(0, 0, 0, 0);
+    figures->addWidget(figureBlock(tr("Value-at-Risk"),
+                                   tr("The loss that should not be exceeded over the horizon with the chosen "
+                                      "confidence — under the model, and if the holdings stay as they are."),
+                                   m_varMoney, m_varShare, m_figures));
+    figures->addWidget(figureBlock(tr("Expected Shortfall"),
+                                   tr("The average loss in the cases where the loss is larger than VaR."), m_esMoney,
+                                   m_esShare, m_figures));
+    figures->addWidget(figureBlock(tr("Portfolio value"), tr("Net market value of the holdings (shorts count negative)."),
+                                   m_value, valueShare, m_figures));
+    figures->addStretch();
+
+    m_sentence = makeLabel(QStringLiteral("headlineSentence"), this);
+    m_sentence->setWordWrap(true);
+    m_notes = makeLabel(QStringLiteral("headlineNotes"), this);
+    m_notes->setWordWrap(true);
+
+    auto *layout = new QVBoxLayout(this);
+    layout->setContentsMargins(4, 4, 4, 4);
+    layout->addWidget(m_figures);
+    layout->addWidget(m_sentence);
+    layout->addWidget(m_notes);
+
+    connect(&workbook, &Workbook::resultsChanged, this, &HeadlinePanel::refresh);
+    connect(&workbook, &Workbook::contentsReset, this, &HeadlinePanel::refresh);
+    // While a background model runs, the figures on screen belong to the previous inputs: they
+    // are greyed and say so until the new ones arrive (or the run is stopped).
+    connect(&workbook, &Workbook::computingChanged, this, [this](bool computing) {
+        m_figures->setEnabled(!computing);
+        if (computing)
+            m_sentence->setText(tr("Working out the figures for the new inputs…"));
+        else
+            refresh();
+    });
+    refresh();
+}
+
+QString HeadlinePanel::modelName(const RiskReport &report)
+{
+    // By the model's file name, so the text follows the core as models are added.
+    const std::string_view name = toName(report.assumptions.model);
+    if (name == "normal") return tr("normal");
+    if (name == "student-t") return tr("Student-t");
+    if (name == "cornish-fisher") return tr("Cornish–Fisher");
+    if (name == "historical") return tr("historical-simulation");
+    if (name == "monte-carlo") return tr("Monte Carlo");
+    return QString::fromUtf8(name.data(), static_cast<qsizetype>(name.size()));
+}
+
+QString HeadlinePanel::sentence(const RiskReport &r)
+{
+    const QLocale locale;
+    const QString confidence = locale.toString(r.assumptions.confidence * 100.0, 'g', 4) + locale.percent();
+    const QString tail = locale.toString((1.0 - r.assumptions.confidence) * 100.0, 'g', 3) + locale.percent();
+    const QString weighting = r.assumptions.estimator == CovarianceEstimator::Ewma
+                                  ? tr(", recent days weighted more (λ %1)").arg(locale.toString(r.assumptions.lambda, 'f', 3))
+                                  : QString();
+    QString share = r.varFraction ? tr(" (%1 of the portfolio's value)").arg(percentText(r.varFraction)) : QString();
+    return tr("Over %1, with %2 confidence, the loss should not exceed %3%4 — "
+              "by the %5 model estimated from the %6 daily returns from %7 to %8%9. "
+              "In the worst %10 of cases the loss averages %11 (Expected Shortfall).")
+        .arg(tradingDaysText(r.assumptions.horizonDays), confidence, moneyText(r.figures.var), share, modelName(r),
+             locale.toString(r.windowReturns), dateText(r.windowFirst), dateText(r.windowLast), weighting)
+        .arg(tail)
+        .arg(moneyText(r.figures.es));
+}
+
+void HeadlinePanel::refresh()
+{
+    const auto &report = m_workbook.report();
+    const auto &error = m_workbook.resultError();
+    if (report) {
+        m_figures->setVisible(true);
+        m_varMoney->setText(moneyText(report->figures.var));
+        m_varShare->setText(percentText(report->varFraction));
+        m_esMoney->setText(moneyText(report->figures.es));
+        m_esShare->setText(percentText(report->esFraction));
+        m_value->setText(moneyText(report->portfolioValue, 0));
+        m_sentence->setText(sentence(*report));
+        QStringList notes;
+        for (const auto &w : report->warnings)
+            notes << QString::fromStdString(w);
+        m_notes->setText(notes.isEmpty() ? QString() : tr("Note: %1.").arg(notes.join(QStringLiteral("; "))));
+        m_notes->setVisible(!notes.isEmpty());
+        return;
+    }
+    m_figures->setVisible(false);
+    m_notes->setVisible(false);
+    if (error) {
+        m_sentence->setText(tr("No figures for these inputs: %1.").arg(QString::fromStdString(error->message)));
+    } else if (!m_workbook.hasPrices()) {
+        m_sentence->setText(tr("To start, open a workbook (File ▸ Open), or import a price history and then holdings "
+                               "(File ▸ Import). The figures appear here as soon as there is something to measure."));
+    } else {
+        m_sentence->setText(tr("Working out the figures…"));
+    }
+}
+
+} // namespace tailwise::ui

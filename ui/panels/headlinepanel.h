@@ -1,0 +1,41 @@
+// HeadlinePanel: the figures at a glance — VaR and ES in money and as a share of the portfolio's
+// value, one sentence that reads them in words, the warnings that came with them, and the result
+// error in plain words when there is no figure. It only shows what the workbook's report says.
+#pragma once
+
+#include <QWidget>
+
+class QLabel;
+
+namespace tailwise {
+struct RiskReport;
+}
+
+namespace tailwise::ui {
+
+class Workbook;
+
+class HeadlinePanel : public QWidget {
+    Q_OBJECT
+public:
+    explicit HeadlinePanel(Workbook &workbook, QWidget *parent = nullptr);
+
+    // The sentence for a report, e.g. "Over 10 trading days, with 99 % confidence, …".
+    static QString sentence(const tailwise::RiskReport &report);
+    static QString modelName(const tailwise::RiskReport &report);
+
+private:
+    void refresh();
+
+    Workbook &m_workbook;
+    QLabel *m_varMoney = nullptr;
+    QLabel *m_varShare = nullptr;
+    QLabel *m_esMoney = nullptr;
+    QLabel *m_esShare = nullptr;
+    QLabel *m_value = nullptr;
+    QLabel *m_sentence = nullptr;
+    QLabel *m_notes = nullptr;
+    QWidget *m_figures = nullptr;
+};
+
+} // namespace tailwise::ui

@@ -1,0 +1,50 @@
+// ModelComparisonView: every model side by side at the workbook's current assumptions (core
+// compareModels), as a table of VaR and ES in money and % with each model's difference from the
+// normal. The table is recomputed in the background (Monte Carlo takes most of it) whenever the
+// figures change while it is shown, with progress and a stop button; a hidden view catches up
+// when it is shown again.
+#pragma once
+
+#include <QWidget>
+
+class QLabel;
+class QProgressBar;
+class QTableView;
+class QToolButton;
+
+namespace tailwise::ui {
+
+class BackgroundRun;
+class ModelComparisonModel;
+class Workbook;
+
+class ModelComparisonView : public QWidget {
+    Q_OBJECT
+public:
+    explicit ModelComparisonView(Workbook &workbook, QWidget *parent = nullptr);
+
+    ModelComparisonModel *model() const { return m_model; }
+    QTableView *table() const { return m_table; }
+    // Computes the table now, on this thread (tests, screenshots).
+    void computeNow();
+    bool isComputing() const;
+
+protected:
+    void showEvent(QShowEvent *event) override;
+
+private:
+    void inputsChanged();
+    void start();
+    void stop();
+
+    Workbook &m_workbook;
+    ModelComparisonModel *m_model = nullptr;
+    QTableView *m_table = nullptr;
+    QLabel *m_status = nullptr;
+    QProgressBar *m_progress = nullptr;
+    QToolButton *m_stop = nullptr;
+    BackgroundRun *m_run = nullptr;
+    bool m_stale = true;
+};
+
+} // namespace tailwise::ui
