@@ -5,7 +5,7 @@
 //   skewness          S = m_3 / m_2^{3/2}
 //   excess kurtosis   K = m_4 / m_2² − 3
 // (the moment coefficients g₁ and g₂ of e.g. Joanes & Gill (1998), "Comparing measures of sample
-// skewness and kurtosis", The Statistician 47(1), 183–189; equal to scipy.stats.skew and
+// skewness and kurtosis", The Statistician 47(1), 183–189 (mem); equal to scipy.stats.skew and
 // scipy.stats.kurtosis with their default bias=True).
 // Used on the window's daily portfolio P&L p_t = Σ_i e_i r_{i,t} by the Cornish–Fisher model and
 // by the moment fit of the Student-t degrees of freedom.

@@ -3,7 +3,7 @@
 // Draws of the H-day return vector r ~ N(H μ, H Σ), or with ν degrees of freedom a multivariate
 // t scaled to the same covariance, r = H μ + √H · s · L z / √(W/ν) with s = √((ν−2)/ν),
 // W ~ χ²_ν independent of z ~ N(0, I) (McNeil, Frey & Embrechts (2005) §3.2, normal variance
-// mixtures), where Σ = L Lᵀ (Cholesky; for a semi-definite Σ the factor V D^{1/2} of its
+// mixtures; (mem)), where Σ = L Lᵀ (Cholesky; for a semi-definite Σ the factor V D^{1/2} of its
 // eigen-decomposition). The P&L of a draw is eᵀr; since eᵀ L z = (Lᵀe)ᵀ z, the factor is applied
 // once to the exposures and each draw costs one dot product — the full return vector is never
 // formed. VaR and ES of the simulated losses −eᵀr are those of historical.h (type 7 quantile, mean
@@ -12,16 +12,16 @@
 // Reproducibility: the draws are cut into fixed blocks of `blockSize` consecutive draws; block b
 // has its own 64-bit Mersenne Twister (std::mt19937_64, whose output the C++ standard fixes)
 // seeded from (seed, b) through the SplitMix64 mixer (Steele, Lea & Flood (2014), "Fast splittable
-// pseudorandom number generators", OOPSLA). Normals come from Marsaglia's polar method (Marsaglia
-// & Bray (1964), SIAM Review 6(3), 260–264) and χ² from Marsaglia & Tsang's gamma method (2000, ACM
-// TOMS 26(3), 363–372), both written here rather than taken from <random>'s implementation-defined
+// pseudorandom number generators", OOPSLA; (mem)). Normals come from Marsaglia's polar method (Marsaglia
+// & Bray (1964), SIAM Review 6(3), 260–264 (mem)) and χ² from Marsaglia & Tsang's gamma method (2000, ACM
+// TOMS 26(3), 363–372 (mem)), both written here rather than taken from <random>'s implementation-defined
 // distributions. Each draw is stored at its own index, so the figures are identical for any number
 // of threads, and identical for the same seed and inputs.
 //
 // Standard error of the VaR by batch means: the draws in draw order are split into 20 equal batches,
 // each batch's VaR is computed the same way, and SE = sd(batch VaRs)/√20 (e.g. Glasserman (2003),
-// Monte Carlo Methods in Financial Engineering, §9.1 on quantile estimation; the batch method is
-// common practice). The ES standard error is given the same way.
+// Monte Carlo Methods in Financial Engineering, §9.1 on quantile estimation (mem); the batch
+// method is common practice). The ES standard error is given the same way.
 //
 // Errors: Cancelled when the stop token is triggered; Assumption (field "simulations") when fewer
 // than 1000 draws are asked for. Preconditions: Σ symmetric positive semi-definite, sizes agree,
