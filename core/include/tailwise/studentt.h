@@ -6,7 +6,7 @@
 //   VaR = s q σ_h − μ_h
 //   ES  = s (ν + q²)/(ν − 1) · f_ν(q)/(1 − C) · σ_h − μ_h
 // (McNeil, Frey & Embrechts, Quantitative Risk Management (2005), ch. 2, the Student-t ES
-// example; the unit-variance scaling follows from the t variance.) q and f_ν come from Boost.Math,
+// example (mem); the unit-variance scaling follows from the t variance.) q and f_ν come from Boost.Math,
 // q through the complement form so that C near 1 keeps its accuracy.
 //
 // Fit by moments: a t_ν has excess kurtosis K = 6/(ν − 4) for ν > 4, so ν = 4 + 6/K from the

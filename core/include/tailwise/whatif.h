@@ -5,7 +5,7 @@
 // e + Δe after (Δe_i = Δq_i × price_i):
 //   incremental VaR    = VaR(e + Δe) − VaR(e)                      exact, under the chosen model
 //   marginal estimate  = Σ_i ∂VaR/∂e_i · Δe_i                      first order in Δe
-// (Jorion, Value at Risk, "VaR tools": incremental and marginal VaR.) For the normal model the
+// (Jorion, Value at Risk, "VaR tools": incremental and marginal VaR (mem).) For the normal model the
 // gradient is the Euler marginal VaR of contributions.h, z√H(Σe)_i/σ_p − Hμ_i. For the other
 // models it is the derivative of that model's VaR along Δe by a central difference,
 // (VaR(e + εΔe) − VaR(e − εΔe)) / (2ε) with ε = 1e-4, every model input (window, fitted ν or shape,
