@@ -95,8 +95,9 @@ void MainWindow::buildLayout()
     m_workSplitter->setObjectName(QStringLiteral("workSplitter"));
     m_workSplitter->addWidget(m_charts);
     m_workSplitter->addWidget(m_holdings);
-    m_workSplitter->setStretchFactor(0, 3);
-    m_workSplitter->setStretchFactor(1, 2);
+    // Charts and holdings share the height about evenly; a portfolio of a dozen lines fits.
+    m_workSplitter->setStretchFactor(0, 1);
+    m_workSplitter->setStretchFactor(1, 1);
     m_workSplitter->setChildrenCollapsible(false);
 
     auto *right = new QWidget;
@@ -366,7 +367,8 @@ void MainWindow::readSettings()
     if (!restoreGeometry(settings.value("window/geometry").toByteArray()))
         resize(1360, 860);
     m_sideSplitter->restoreState(settings.value("window/sideSplitter").toByteArray());
-    m_workSplitter->restoreState(settings.value("window/workSplitter").toByteArray());
+    if (!m_workSplitter->restoreState(settings.value("window/workSplitter").toByteArray()))
+        m_workSplitter->setSizes({1000, 1000}); // halves, in proportion
     m_actions->setRecentFiles(settings.value(kRecentKey).toStringList());
 }
 

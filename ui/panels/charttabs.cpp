@@ -27,7 +27,7 @@ ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_w
     m_lossTail = new LossTailChart(tailPage);
     m_percent = new QCheckBox(tr("Show as % of portfolio value"), tailPage);
     m_percent->setToolTip(tr("Draw the P&L axis as a share of the portfolio's value instead of money."));
-    m_history = new QCheckBox(tr("Show the window's daily P&L, scaled to the horizon"), tailPage);
+    m_history = new QCheckBox(tr("Show the window's daily P&&L, scaled to the horizon"), tailPage);
     m_history->setChecked(true);
     m_history->setToolTip(tr("Bars: today's holdings applied to each day of the window, scaled by the square root "
                              "of the horizon — the data the model was fitted to."));
@@ -64,6 +64,7 @@ ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_w
 
     connect(&workbook, &Workbook::resultsChanged, this, &ChartTabs::refresh);
     connect(&workbook, &Workbook::contentsReset, this, &ChartTabs::refresh);
+    connect(m_tabs, &QTabWidget::currentChanged, this, &ChartTabs::refreshTab);
     connect(m_percent, &QCheckBox::toggled, this, &ChartTabs::refreshLossTail);
     connect(m_history, &QCheckBox::toggled, this, &ChartTabs::refreshLossTail);
     connect(m_tradeoff, &TradeoffChart::assumptionsPicked, this, [this](int horizonDays, double confidence) {
@@ -99,10 +100,25 @@ void ChartTabs::refresh()
         m_stack->setCurrentWidget(m_empty);
         return;
     }
-    refreshLossTail();
-    m_tradeoff->setData(buildTradeoffChartData(*report));
-    m_contributions->setData(buildContributionsChartData(*report));
     m_stack->setCurrentWidget(m_tabs);
+    // Only the tab on view is redrawn now; the others when they are shown. With hundreds of
+    // holdings a redraw of all three would cost more than a frame after every edit.
+    m_stale = {true, true, true};
+    refreshTab(m_tabs->currentIndex());
+}
+
+void ChartTabs::refreshTab(int tab)
+{
+    const auto &report = m_workbook.report();
+    if (!report || tab < 0 || tab >= static_cast<int>(m_stale.size()) || !m_stale[static_cast<std::size_t>(tab)])
+        return;
+    m_stale[static_cast<std::size_t>(tab)] = false;
+    if (tab == 0)
+        refreshLossTail();
+    else if (tab == 1)
+        m_tradeoff->setData(buildTradeoffChartData(*report));
+    else
+        m_contributions->setData(buildContributionsChartData(*report));
 }
 
 } // namespace tailwise::ui

@@ -5,6 +5,8 @@
 
 #include <QWidget>
 
+#include <array>
+
 class QCheckBox;
 class QLabel;
 class QStackedWidget;
@@ -30,6 +32,7 @@ public:
 private:
     void refresh();
     void refreshLossTail();
+    void refreshTab(int tab);
 
     Workbook &m_workbook;
     QStackedWidget *m_stack = nullptr;
@@ -40,6 +43,7 @@ private:
     QCheckBox *m_history = nullptr;
     TradeoffChart *m_tradeoff = nullptr;
     ContributionsChart *m_contributions = nullptr;
+    std::array<bool, 3> m_stale{true, true, true}; // tab needs new data before it is drawn
 };
 
 } // namespace tailwise::ui

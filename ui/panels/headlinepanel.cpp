@@ -74,6 +74,8 @@ HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(pare
                                    m_value, valueShare, m_figures));
     figures->addStretch();
 
+    m_title = makeLabel(QStringLiteral("workbookTitle"), this, 1.2, true);
+    m_title->setToolTip(tr("The workbook's title, as saved in the file."));
     m_sentence = makeLabel(QStringLiteral("headlineSentence"), this);
     m_sentence->setWordWrap(true);
     m_notes = makeLabel(QStringLiteral("headlineNotes"), this);
@@ -81,12 +83,14 @@ HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(pare
 
     auto *layout = new QVBoxLayout(this);
     layout->setContentsMargins(4, 4, 4, 4);
+    layout->addWidget(m_title);
     layout->addWidget(m_figures);
     layout->addWidget(m_sentence);
     layout->addWidget(m_notes);
 
     connect(&workbook, &Workbook::resultsChanged, this, &HeadlinePanel::refresh);
     connect(&workbook, &Workbook::contentsReset, this, &HeadlinePanel::refresh);
+    connect(&workbook, &Workbook::titleChanged, this, &HeadlinePanel::refresh);
     // While a background model runs, the figures on screen belong to the previous inputs: they
     // are greyed and say so until the new ones arrive (or the run is stopped).
     connect(&workbook, &Workbook::computingChanged, this, [this](bool computing) {
@@ -131,6 +135,8 @@ QString HeadlinePanel::sentence(const RiskReport &r)
 
 void HeadlinePanel::refresh()
 {
+    m_title->setText(m_workbook.title());
+    m_title->setVisible(!m_workbook.title().isEmpty());
     const auto &report = m_workbook.report();
     const auto &error = m_workbook.resultError();
     if (report) {

@@ -28,6 +28,7 @@ private:
     void refresh();
 
     Workbook &m_workbook;
+    QLabel *m_title = nullptr;
     QLabel *m_varMoney = nullptr;
     QLabel *m_varShare = nullptr;
     QLabel *m_esMoney = nullptr;
