@@ -87,7 +87,8 @@ HoldingsEditor::HoldingsEditor(Workbook &workbook, QWidget *parent) : QWidget(pa
     m_view->setAlternatingRowColors(true);
     m_view->verticalHeader()->setDefaultSectionSize(m_view->fontMetrics().height() + 8);
     m_view->horizontalHeader()->setSectionResizeMode(QHeaderView::Interactive);
-    m_view->horizontalHeader()->setStretchLastSection(true);
+    // Columns keep their fitted widths; a stretched last column would push its figures far from the rest.
+    m_view->horizontalHeader()->setStretchLastSection(false);
     m_view->horizontalHeader()->setMinimumSectionSize(70);
     m_view->setWordWrap(false);
 
