@@ -312,7 +312,7 @@ void AssumptionsPane::refresh()
     setIf(m_window, a.window.value_or(available));
     m_window->setEnabled(a.window.has_value());
     m_allReturns->setChecked(!a.window.has_value());
-    m_allReturns->setText(tr("All %1").arg(QLocale().toString(available)));
+    m_allReturns->setText(m_workbook.prices().dayCount() > 1 ? tr("All %1").arg(QLocale().toString(available)) : tr("All"));
     auto select = [](QComboBox *combo, int value) { combo->setCurrentIndex(std::max(0, combo->findData(value))); };
     select(m_estimator, int(a.estimator));
     select(m_mean, int(a.mean));

@@ -95,8 +95,9 @@ void ChartTabs::refresh()
     const auto &report = m_workbook.report();
     if (!report) {
         const auto &error = m_workbook.resultError();
-        m_empty->setText(error ? tr("No charts: %1.").arg(QString::fromStdString(error->message))
-                               : tr("The charts appear here once there are figures to draw."));
+        const bool nothingYet = !m_workbook.hasPrices() || m_workbook.holdings().empty();
+        m_empty->setText(error && !nothingYet ? tr("No charts: %1.").arg(QString::fromStdString(error->message))
+                                              : tr("The charts appear here once there are figures to draw."));
         m_stack->setCurrentWidget(m_empty);
         return;
     }

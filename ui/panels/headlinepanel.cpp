@@ -156,11 +156,15 @@ void HeadlinePanel::refresh()
     }
     m_figures->setVisible(false);
     m_notes->setVisible(false);
-    if (error) {
-        m_sentence->setText(tr("No figures for these inputs: %1.").arg(QString::fromStdString(error->message)));
-    } else if (!m_workbook.hasPrices()) {
+    // Nothing to measure yet is not an error: say how to start instead.
+    if (!m_workbook.hasPrices()) {
         m_sentence->setText(tr("To start, open a workbook (File ▸ Open), or import a price history and then holdings "
                                "(File ▸ Import). The figures appear here as soon as there is something to measure."));
+    } else if (m_workbook.holdings().empty()) {
+        m_sentence->setText(tr("Add holdings to see their risk: Add Holding below, paste rows copied from a "
+                               "spreadsheet, or File ▸ Import Holdings."));
+    } else if (error) {
+        m_sentence->setText(tr("No figures for these inputs: %1.").arg(QString::fromStdString(error->message)));
     } else {
         m_sentence->setText(tr("Working out the figures…"));
     }
