@@ -41,6 +41,8 @@ double trapezoid(const QVector<double> &x, const QVector<double> &y)
 class TestChartData : public QObject {
     Q_OBJECT
 private slots:
+    // The texts checked below are written in US English number format.
+    void initTestCase() { QLocale::setDefault(QLocale(QLocale::English, QLocale::UnitedStates)); }
     void lossTailBoundaryIsMinusVar_data();
     void lossTailBoundaryIsMinusVar();
     void lossTailBoundaryMovesWithConfidence();

@@ -17,11 +17,11 @@ QString LocaleTicker::getTickLabel(double tick, const QLocale &, QChar, int)
     const double v = tick * m_scale;
     if (!std::isfinite(v))
         return {};
-    // As many decimals as the step needs (0.25 → 2), none for steps of 1 or more.
+    // As many decimals as the step needs: 2.5 → 1, 0.25 → 2, 1000 → 0.
     const double step = std::abs(m_step * m_scale);
     int decimals = 0;
-    if (step > 0.0 && step < 1.0) {
-        for (decimals = 1; decimals < 6; ++decimals) {
+    if (step > 0.0 && std::isfinite(step)) {
+        for (; decimals < 6; ++decimals) {
             const double shifted = step * std::pow(10.0, decimals);
             if (std::abs(shifted - std::round(shifted)) < 1e-6 * shifted)
                 break;

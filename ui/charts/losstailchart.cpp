@@ -83,7 +83,8 @@ void LossTailChart::build()
     m_history->setBrush(chartstyle::sand());
 
     m_tail = p->addGraph();
-    m_tail->setPen(Qt::NoPen);
+    // Outlined as well as filled: the tail holds little area, so its edge carries it.
+    m_tail->setPen(QPen(chartstyle::rust(), 2.5));
     QColor tailFill = chartstyle::rust();
     tailFill.setAlpha(150);
     m_tail->setBrush(QBrush(tailFill));
