@@ -17,6 +17,7 @@
 #include <QAbstractItemModelTester>
 #include <QAction>
 #include <QApplication>
+#include <QClipboard>
 #include <QDoubleSpinBox>
 #include <QFile>
 #include <QLabel>
@@ -366,6 +367,29 @@ private slots:
         w->scheduler().computeNow();
         QCOMPARE(model->rowCount(), 0);
         QCOMPARE(model->index(0, 0).isValid(), false);
+    }
+
+    // Ctrl+V and Delete act on the holdings only while the table has the focus: in a field of the
+    // assumptions they keep their ordinary meaning.
+    void pasteAndDeleteKeysBelongToTheTable()
+    {
+        auto w = sampleWindow();
+        w->show();
+        QVERIFY(QTest::qWaitForWindowActive(w.get()));
+        Workbook &wb = w->workbook();
+        QApplication::clipboard()->setText(QStringLiteral("LARK_ENERGY\t5"));
+        auto *spin = w->findChild<QDoubleSpinBox *>(QStringLiteral("confidence"));
+        spin->setFocus();
+        QTest::keyClick(spin, Qt::Key_V, Qt::ControlModifier);
+        QCOMPARE(wb.holdings()[0].quantity, 9000.0);
+        auto *view = w->holdingsEditor()->tableView();
+        view->setFocus();
+        QTest::keyClick(view, Qt::Key_V, Qt::ControlModifier);
+        QCOMPARE(wb.holdings()[0].quantity, 5.0);
+        view->selectRow(0);
+        QTest::keyClick(view, Qt::Key_Delete);
+        QCOMPARE(wb.holdings().size(), std::size_t(12));
+        QCOMPARE(wb.holdings()[0].asset, std::string("FENWAY_RAIL"));
     }
 
     void numbersFollowTheLocale()
