@@ -155,7 +155,10 @@ std::string writeHoldingsCsv(const Holdings &holdings)
         return std::string(buffer, end);
     };
     auto name = [](const std::string &s) {
-        if (s.find_first_of(",\"") == std::string::npos)
+        // Quote what the reader would otherwise change: separators, quotes, blanks at either end.
+        const bool blankEnd = !s.empty() && (s.front() == ' ' || s.front() == '\t' || s.back() == ' ' || s.back() == '\t'
+                                             || s.back() == '\r');
+        if (s.find_first_of(",\"") == std::string::npos && !blankEnd)
             return s;
         std::string out = "\"";
         for (char c : s) {

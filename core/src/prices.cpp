@@ -93,7 +93,7 @@ Result<PriceHistory> parsePriceCsv(std::string_view text, const std::string &sou
     const double missing = std::numeric_limits<double>::quiet_NaN();
 
     std::vector<double> values; // row-major while reading
-    values.reserve(n * std::max<std::size_t>(1, text.size() / (8 * (n + 1))));
+    values.reserve(std::min(PriceLimits::maxCells, n * std::max<std::size_t>(1, text.size() / (8 * (n + 1)))));
     std::size_t gapCount = 0;
     while (lines.next(line)) {
         const int lineNo = lines.lineNumber();
@@ -104,6 +104,10 @@ Result<PriceHistory> parsePriceCsv(std::string_view text, const std::string &sou
         if (history.dates.size() >= PriceLimits::maxRows)
             return fileError(ErrorKind::Format, source, lineNo, 0,
                              "more than " + std::to_string(PriceLimits::maxRows) + " rows: over the limit");
+        if ((history.dates.size() + 1) * n > PriceLimits::maxCells)
+            return fileError(ErrorKind::Format, source, lineNo, 0,
+                             "more than " + std::to_string(PriceLimits::maxCells) + " prices in all (rows × "
+                                 + std::to_string(n) + " assets): over the limit");
         std::optional<Error> failure;
         const std::size_t rowStart = values.size();
         values.resize(rowStart + n, missing);
@@ -227,7 +231,11 @@ Result<PriceHistory> readPriceCsv(const std::string &path)
 namespace {
 void appendCsvName(std::string &out, const std::string &name)
 {
-    if (name.find_first_of(",\"") == std::string::npos && name.find(' ') != 0) {
+    // Quote what the reader would otherwise change: separators, quotes, and blanks at either end
+    // (an unquoted cell is trimmed).
+    const bool blankEnd = !name.empty() && (name.front() == ' ' || name.front() == '\t' || name.back() == ' ' || name.back() == '\t'
+                                               || name.back() == '\r');
+    if (name.find_first_of(",\"") == std::string::npos && !blankEnd) {
         out += name;
         return;
     }

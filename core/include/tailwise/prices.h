@@ -14,7 +14,8 @@
 // as a warning. Rows before every asset has its first price are dropped, also with a warning.
 //
 // Limits (refused with a message, so that a wrong file cannot exhaust memory): file size, number
-// of columns and rows, length of a line — see the constants below.
+// of columns and rows, length of a line, and prices in all (rows × assets, which bounds the memory
+// a file of mostly empty cells could claim) — see the constants below.
 #pragma once
 
 #include "tailwise/date.h"
@@ -34,6 +35,7 @@ struct PriceLimits {
     static constexpr std::size_t maxAssets = 20000;
     static constexpr std::size_t maxRows = 200000;
     static constexpr std::size_t maxLineBytes = 1024u * 1024u;
+    static constexpr std::size_t maxCells = 10000000; // rows × assets, e.g. 2,000 assets × 5,000 days
 };
 
 struct PriceHistory {
