@@ -195,45 +195,82 @@ Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdi
 Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdings, const Assumptions &assumptions,
                                const RunControl &control)
 {
+    EstimateCache oneOff;
+    return computeRisk(prices, holdings, assumptions, control, oneOff, 0);
+}
+
+namespace {
+
+// The window of the held assets' returns and its moments: from the cache when the key matches.
+Result<const EstimateEntry *> heldEstimate(const PriceHistory &prices, const Holdings &holdings,
+                                           const Assumptions &assumptions, EstimateCache &cache,
+                                           std::uint64_t pricesRevision)
+{
+    EstimateKey key{pricesRevision, {}, assumptions.returns, assumptions.window,
+                    assumptions.estimator, assumptions.lambda, assumptions.mean};
+    key.assets.reserve(holdings.size());
+    for (const auto &h : holdings)
+        key.assets.push_back(h.asset);
+    if (const EstimateEntry *hit = cache.find(key))
+        return hit;
+    auto window = selectWindow(prices, assumptions.returns, assumptions.window);
+    if (!window)
+        return window.error();
+    // Only the held assets enter the estimate, in holdings order.
+    const Eigen::Index n = static_cast<Eigen::Index>(holdings.size());
+    EstimateEntry entry;
+    entry.heldReturns.resize(window.value().returns.rows(), n);
+    for (Eigen::Index i = 0; i < n; ++i)
+        entry.heldReturns.col(i) = window.value().returns.col(prices.assetIndex(holdings[static_cast<std::size_t>(i)].asset));
+    entry.windowFirst = window.value().firstDate;
+    entry.windowLast = window.value().lastDate;
+    entry.moments = estimateMoments(entry.heldReturns, assumptions.estimator, assumptions.lambda, assumptions.mean);
+    cache.store(std::move(key), std::move(entry));
+    return cache.find(cache.lastKey());
+}
+
+} // namespace
+
+Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdings, const Assumptions &assumptions,
+                               const RunControl &control, EstimateCache &cache, std::uint64_t pricesRevision)
+{
     if (auto ok = validate(assumptions); !ok)
         return ok.error();
     if (holdings.empty())
         return fieldError(ErrorKind::InsufficientData, "holdings", "the portfolio has no holdings");
     if (auto ok = checkHoldings(holdings, prices); !ok)
         return ok.error();
-    auto window = selectWindow(prices, assumptions.returns, assumptions.window);
-    if (!window)
-        return window.error();
+    auto estimate = heldEstimate(prices, holdings, assumptions, cache, pricesRevision);
+    if (!estimate)
+        return estimate.error();
+    const EstimateEntry &entry = *estimate.value();
 
-    // Only the held assets enter the estimate, in holdings order.
     const Eigen::Index n = static_cast<Eigen::Index>(holdings.size());
-    Eigen::MatrixXd held(window.value().returns.rows(), n);
     Eigen::VectorXd exposures(n);
     RiskReport report;
     report.assumptions = assumptions;
     report.holdings.resize(holdings.size());
     for (Eigen::Index i = 0; i < n; ++i) {
         const auto &h = holdings[static_cast<std::size_t>(i)];
-        held.col(i) = window.value().returns.col(prices.assetIndex(h.asset));
         exposures(i) = holdingExposure(h, prices);
         auto &hr = report.holdings[static_cast<std::size_t>(i)];
         hr.asset = h.asset;
         hr.price = h.value ? 0.0 : holdingPrice(h, prices);
         hr.quantity = h.value ? 0.0 : h.quantity;
     }
-    if (auto ok = requireFiniteInputs(held, exposures, holdings, prices.sourceName); !ok)
+    if (auto ok = requireFiniteInputs(entry.heldReturns, exposures, holdings, prices.sourceName); !ok)
         return ok.error();
-    report.windowReturns = static_cast<int>(held.rows());
-    report.windowFirst = window.value().firstDate;
-    report.windowLast = window.value().lastDate;
+    report.windowReturns = static_cast<int>(entry.heldReturns.rows());
+    report.windowFirst = entry.windowFirst;
+    report.windowLast = entry.windowLast;
     report.warnings = prices.warnings;
-    if (held.rows() <= n)
-        report.warnings.push_back("the window has " + std::to_string(held.rows()) + " returns for " + std::to_string(n)
+    if (entry.heldReturns.rows() <= n)
+        report.warnings.push_back("the window has " + std::to_string(entry.heldReturns.rows()) + " returns for " + std::to_string(n)
                                   + " holdings: the covariance is singular and the figures rest on too little data");
-    report.moments = estimateMoments(held, assumptions.estimator, assumptions.lambda, assumptions.mean);
+    report.moments = entry.moments;
     report.warnings.insert(report.warnings.end(), report.moments.warnings.begin(), report.moments.warnings.end());
     fillFigures(report, exposures, report.moments.covariance, report.moments.mean);
-    report.windowReturnsMatrix = std::move(held);
+    report.windowReturnsMatrix = entry.heldReturns;
     if (auto ok = applyModel(report, control); !ok)
         return ok.error();
     finishFigures(report);

@@ -17,6 +17,7 @@
 #include "tailwise/assumptions.h"
 #include "tailwise/contributions.h"
 #include "tailwise/estimate.h"
+#include "tailwise/estimatecache.h"
 #include "tailwise/holdings.h"
 #include "tailwise/parametric.h"
 #include "tailwise/prices.h"
@@ -92,6 +93,11 @@ Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdi
 // the GUI thread). Errors additionally: Cancelled.
 Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdings,
                                const Assumptions &assumptions, const RunControl &control);
+// The same, reusing the window and moments from `cache` when its key matches (estimatecache.h);
+// `pricesRevision` identifies the price history's current version for the key.
+Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdings,
+                               const Assumptions &assumptions, const RunControl &control,
+                               EstimateCache &cache, std::uint64_t pricesRevision);
 
 // The single-position mode of the CLI: one holding of value V with annual volatility and drift.
 // Models that need the P&L history (historical, cornish-fisher, student-t with ν fitted) are
