@@ -8,6 +8,7 @@
 #include "panels/holdingseditor.h"
 
 #include <QApplication>
+#include <QIcon>
 #include <QCommandLineParser>
 #include <QMessageBox>
 #include <QPixmap>
@@ -30,6 +31,7 @@ int main(int argc, char *argv[])
     QApplication app(argc, argv);
     QApplication::setOrganizationName(QStringLiteral("Tailwise"));
     QApplication::setApplicationName(QStringLiteral("Tailwise"));
+    QApplication::setWindowIcon(QIcon(QStringLiteral(":/icons/tailwise.svg")));
     QApplication::setApplicationVersion(QStringLiteral(TAILWISE_VERSION));
 
     QCommandLineParser parser;
