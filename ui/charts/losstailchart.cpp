@@ -126,10 +126,33 @@ void LossTailChart::setData(const LossTailChartData &data)
     m_curve->setVisible(data.hasCurve);
     m_tail->setVisible(data.hasCurve);
 
+    for (QCPGraph *g : m_overlays)
+        p->removeGraph(g);
+    m_overlays.clear();
+    int model = 0;
+    for (const LossTailOverlay &o : data.overlays) {
+        if (!data.hasCurve)
+            break;
+        QCPGraph *g = p->addGraph();
+        if (o.ghost) {
+            // Faint and dashed: the picture before the trades, behind the current one.
+            QColor c = chartstyle::slate();
+            c.setAlpha(150);
+            g->setPen(QPen(c, 2, Qt::DashLine));
+        } else {
+            g->setPen(QPen(chartstyle::seriesColor(++model), 1.8, Qt::DashDotLine));
+        }
+        g->setName(o.legend);
+        g->setData(data.x, scaled(o.density, f), true);
+        m_overlays.push_back(g);
+    }
+
     p->legend->clearItems();
     if (data.hasCurve) {
         m_curve->addToLegend();
         m_tail->addToLegend();
+        for (QCPGraph *g : m_overlays)
+            g->addToLegend();
     }
     if (data.hasHistogram)
         m_history->addToLegend();

@@ -6,6 +6,7 @@
 
 #include "charts/losstailchartdata.h"
 
+#include <QVector>
 #include <QWidget>
 
 class QCustomPlot;
@@ -51,6 +52,7 @@ private:
     QCPItemStraightLine *m_esLine = nullptr;
     QCPItemText *m_varText = nullptr;
     QCPItemText *m_esText = nullptr;
+    QVector<QCPGraph *> m_overlays; // LossTailChartData::overlays, in order
     QCPItemStraightLine *m_pointerLine = nullptr;
     QCPItemText *m_pointerText = nullptr;
 };

@@ -2,6 +2,8 @@
 
 #include "charts/chartstyle.h"
 
+#include "tailwise/modeldensity.h"
+
 #include <QCoreApplication>
 #include <QLocale>
 
@@ -70,6 +72,31 @@ void fillHistogram(const RiskReport &report, const LossTailOptions &options, dou
     d.binWidth = width;
     d.historyCount = static_cast<int>(values.size());
     d.hasHistogram = true;
+}
+
+// A report's density at the chart's x (x units), or nullopt when it has none or a value is not finite.
+std::optional<QVector<double>> densityAt(const RiskReport &report, const LossTailChartData &d, bool normalFallback)
+{
+    std::vector<double> money(static_cast<std::size_t>(d.x.size()));
+    for (qsizetype i = 0; i < d.x.size(); ++i)
+        money[static_cast<std::size_t>(i)] = d.x[i] * d.moneyPerUnit;
+    std::optional<std::vector<double>> f = modelPnlDensity(report, money);
+    if (!f && normalFallback && report.horizon.sd > 0.0) {
+        f.emplace();
+        for (double x : money)
+            f->push_back(normalPnlDensity(report.horizon, x));
+    }
+    if (!f)
+        return std::nullopt;
+    QVector<double> out;
+    out.reserve(d.x.size());
+    for (double v : *f) {
+        const double y = v * d.moneyPerUnit; // per money → per x unit
+        if (!finite(y))
+            return std::nullopt;
+        out.push_back(y);
+    }
+    return out;
 }
 
 } // namespace
@@ -166,6 +193,19 @@ LossTailChartData buildLossTailChartData(const RiskReport &report, const LossTai
             d.tailDensity.push_back(normalPnlDensity(d.model, d.tailBoundary));
         }
         d.densityMax = *std::max_element(d.density.cbegin(), d.density.cend());
+        if (options.ghost) {
+            if (auto f = densityAt(*options.ghost, d, true))
+                d.overlays.push_back({options.ghostLegend.isEmpty() ? tr("Before the trades") : options.ghostLegend,
+                                      std::move(*f), true});
+        }
+        for (const auto &[legend, other] : options.overlays) {
+            if (!other)
+                continue;
+            if (auto f = densityAt(*other, d, false))
+                d.overlays.push_back({legend, std::move(*f), false});
+        }
+        for (const LossTailOverlay &o : d.overlays)
+            d.densityMax = std::max(d.densityMax, *std::max_element(o.density.cbegin(), o.density.cend()));
     }
     for (double b : d.binDensity)
         d.densityMax = std::max(d.densityMax, b);

@@ -12,6 +12,10 @@
 //
 // With a model other than normal (Assumptions::model) the figures come from that model and the
 // curve is the normal distribution with the same μ_h and σ_h, labelled so; the note says so.
+// Overlays (optional): other models' horizon P&L densities (core modelPnlDensity: student-t,
+// Cornish–Fisher; models without a closed density are skipped) drawn over the same x range, and a
+// ghost — the density of the portfolio before a proposed trade (its model's density, or the normal
+// one with its μ_h, σ_h when that model has none) — drawn faint behind the curve.
 // Degenerate inputs never produce NaN: with σ_h = 0 there is no curve (hasCurve false) and
 // `note` says why; percent of value is refused (falls back to money, with a note) when V ≤ 0.
 #pragma once
@@ -23,6 +27,7 @@
 #include <QVector>
 
 #include <optional>
+#include <vector>
 
 namespace tailwise::ui {
 
@@ -34,6 +39,16 @@ struct LossTailOptions {
     int curvePoints = 401;  // samples of the density across the x range
     int histogramBins = 0;  // 0: choose by the Freedman–Diaconis rule (clamped to 12…80)
     double spanSd = 4.5;    // the x range covers μ_h ± spanSd·σ_h (and the whole histogram)
+    // Reports of other models at the same inputs, each drawn as a line with its legend; not owned.
+    std::vector<std::pair<QString, const RiskReport *>> overlays;
+    const RiskReport *ghost = nullptr; // what-if: the portfolio before the trades; not owned
+    QString ghostLegend;
+};
+
+struct LossTailOverlay {
+    QString legend;
+    QVector<double> density; // at LossTailChartData::x, per x unit
+    bool ghost = false;
 };
 
 struct LossTailChartData {
@@ -50,6 +65,8 @@ struct LossTailChartData {
     double esMarker = 0.0;              // −ES in x units
     double tailProbability = 0.01;      // 1 − C, the model's mass of the shaded part
     QString varLabel, esLabel;          // marker labels with the money figures
+
+    QVector<LossTailOverlay> overlays;  // ghost first, then the models in the order given
 
     bool hasHistogram = false;
     QVector<double> binCenters, binDensity; // density per x unit

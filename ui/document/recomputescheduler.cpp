@@ -4,8 +4,13 @@
 
 #include "tailwise/risk.h"
 
+#include <QCoreApplication>
 #include <QPointer>
 #include <QThreadPool>
+
+#include <algorithm>
+#include <atomic>
+#include <cmath>
 
 namespace tailwise::ui {
 
@@ -42,7 +47,7 @@ void RecomputeScheduler::schedule()
 void RecomputeScheduler::cancel()
 {
     if (m_stop)
-        m_stop->store(true);
+        m_stop->request_stop();
     m_stop.reset();
 }
 
@@ -73,19 +78,39 @@ void RecomputeScheduler::run()
     auto prices = std::make_shared<PriceHistory>(m_workbook.prices());
     auto holdings = std::make_shared<Holdings>(m_workbook.holdings());
     const Assumptions assumptions = m_workbook.assumptions();
-    auto stop = std::make_shared<std::atomic<bool>>(false);
+    auto stop = std::make_shared<std::stop_source>();
     m_stop = stop;
     m_workbook.setComputing(true);
     QPointer<Workbook> target(&m_workbook);
+    QPointer<RecomputeScheduler> self(this);
     QThreadPool::globalInstance()->start([=]() {
-        auto result = std::make_shared<Result<RiskReport>>(computeRisk(*prices, *holdings, assumptions));
-        if (stop->load())
+        RunControl control;
+        control.stop = stop->get_token();
+        // Whole percents only: one queued signal per step at most.
+        auto lastPercent = std::make_shared<std::atomic<int>>(-1);
+        control.progress = [=](double fraction) {
+            const int percent = static_cast<int>(std::floor(std::clamp(fraction, 0.0, 1.0) * 100.0));
+            if (percent <= lastPercent->load())
+                return;
+            lastPercent->store(percent);
+            QMetaObject::invokeMethod(
+                QCoreApplication::instance(), // outlives the job; `self` is checked on arrival
+                [=]() {
+                    if (self && !stop->stop_requested())
+                        emit self->progress(percent / 100.0);
+                },
+                Qt::QueuedConnection);
+        };
+        auto result = std::make_shared<Result<RiskReport>>(computeRisk(*prices, *holdings, assumptions, control));
+        if (stop->stop_requested())
             return; // inputs changed or the window closed: nobody wants this result
         QMetaObject::invokeMethod(
             target.data(),
             [=]() {
-                if (!target || stop->load())
+                if (!target || stop->stop_requested())
                     return;
+                if (self && self->m_stop == stop)
+                    self->m_stop.reset();
                 target->publishResult(generation, std::move(*result));
                 target->setComputing(false);
             },

@@ -4,14 +4,16 @@
 // loop turn costs one computation). The inputs are copied into a plain core request and run:
 // inline when the model is cheap (closed-form models take well under a frame), on a worker thread
 // otherwise, with the workbook's input generation attached so that a result computed from
-// outdated inputs is dropped. A running background job is asked to stop when inputs change again.
+// outdated inputs is dropped. A background job gets core's RunControl (runcontrol.h): its stop
+// token is triggered when inputs change again or cancel() is called, and its progress reaches the
+// GUI thread as progress() signals (at most one per percent, so the event queue never floods).
 #pragma once
 
 #include <QObject>
 #include <QTimer>
 
-#include <atomic>
 #include <memory>
+#include <stop_token>
 
 namespace tailwise::ui {
 
@@ -27,6 +29,8 @@ public:
     void computeNow();
     // Asks a running background computation to stop; its result is discarded.
     void cancel();
+    // True while a background job runs (its result not yet published or dropped).
+    bool isRunningInBackground() const { return m_stop != nullptr; }
 
 signals:
     void progress(double fraction); // 0…1, background jobs only
@@ -37,7 +41,7 @@ private:
 
     Workbook &m_workbook;
     QTimer m_timer;
-    std::shared_ptr<std::atomic<bool>> m_stop; // of the running background job, if any
+    std::shared_ptr<std::stop_source> m_stop; // of the running background job, if any
 };
 
 } // namespace tailwise::ui

@@ -2,6 +2,7 @@
 
 #include "document/workbook.h"
 #include "localnumbers.h"
+#include "modelsettings.h"
 
 #include "tailwise/assumptions.h"
 
@@ -198,6 +199,8 @@ void AssumptionsPane::buildWidgets()
     }
     m_model->setToolTip(tr("The model that turns the estimates into a loss distribution."));
     form->addRow(tr("Model"), m_model);
+    // The chosen model's own parameters (ν, historical horizon, draws and seed).
+    form->addRow(new ModelSettings(m_workbook, this));
 
     // A typed number becomes one edit when it is confirmed (Return or leaving the field), not one
     // per keystroke; arrow steps still apply at once.
