@@ -128,6 +128,32 @@ private:
     QString m_after;
 };
 
+class SetBacktestSettingsCommand : public QUndoCommand {
+public:
+    SetBacktestSettingsCommand(Workbook &wb, BacktestSettings after, const QString &text, MergeKey key)
+        : QUndoCommand(text), m_wb(wb), m_before(wb.contents().backtest), m_after(std::move(after)), m_key(key)
+    {
+    }
+    void redo() override { m_wb.applyBacktestSettings(m_after); }
+    void undo() override { m_wb.applyBacktestSettings(m_before); }
+    // Apart from the assumptions' ids (1000 + key), so the two kinds never merge.
+    int id() const override { return m_key == MergeKey::None ? -1 : 2000 + static_cast<int>(m_key); }
+    bool mergeWith(const QUndoCommand *other) override
+    {
+        if (other->id() != id())
+            return false;
+        m_after = static_cast<const SetBacktestSettingsCommand *>(other)->m_after;
+        setText(other->text());
+        return true;
+    }
+
+private:
+    Workbook &m_wb;
+    std::optional<BacktestSettings> m_before; // unset when the workbook had none stored
+    BacktestSettings m_after;
+    MergeKey m_key;
+};
+
 } // namespace
 
 void setHolding(Workbook &wb, int row, const Holding &holding, const QString &text)
@@ -187,6 +213,13 @@ void setTitle(Workbook &wb, const QString &title)
     if (title == wb.title())
         return;
     wb.undoStack()->push(new SetTitleCommand(wb, title));
+}
+
+void setBacktestSettings(Workbook &wb, const BacktestSettings &settings, const QString &text, MergeKey key)
+{
+    if (wb.contents().backtest == settings)
+        return;
+    wb.undoStack()->push(new SetBacktestSettingsCommand(wb, settings, text, key));
 }
 
 } // namespace tailwise::ui::edit

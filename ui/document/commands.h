@@ -21,6 +21,8 @@ enum class MergeKey {
     Window,
     Lambda,
     Other,
+    BacktestWindow,
+    BacktestTestSize,
 };
 
 // Changes one holding (quantity, price override, asset, …). `text` e.g. "Change quantity of ABC".
@@ -38,5 +40,9 @@ void setAssumptions(Workbook &workbook, const tailwise::Assumptions &assumptions
 // (check with tailwise::checkHoldings first and refuse otherwise, so nothing changes).
 void replacePrices(Workbook &workbook, const tailwise::PriceHistory &prices, const QString &text);
 void setTitle(Workbook &workbook, const QString &title);
+// Sets the backtest settings (stored in the workbook from then on); consecutive calls with the
+// same non-None key merge. Does nothing when they are what the workbook already has.
+void setBacktestSettings(Workbook &workbook, const BacktestSettings &settings, const QString &text,
+                         MergeKey key = MergeKey::None);
 
 } // namespace tailwise::ui::edit

@@ -45,6 +45,7 @@ void Workbook::resetContents(WorkbookContents contents, const QString &fromFile)
     emit pricesChanged();
     emit assumptionsChanged();
     emit titleChanged();
+    emit backtestSettingsChanged();
     emit contentsReset();
     emit modifiedChanged(isModified());
     inputsTouched();
@@ -113,6 +114,12 @@ void Workbook::applyTitle(const QString &title)
     m_contents.title = title;
     emit titleChanged();
     inputsTouched();
+}
+
+void Workbook::applyBacktestSettings(const std::optional<BacktestSettings> &settings)
+{
+    m_contents.backtest = settings;
+    emit backtestSettingsChanged();
 }
 
 void Workbook::setComputing(bool computing)

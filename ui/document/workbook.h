@@ -37,6 +37,8 @@ public:
     const tailwise::Holdings &holdings() const { return m_contents.holdings; }
     const tailwise::Assumptions &assumptions() const { return m_contents.assumptions; }
     QString title() const { return m_contents.title; }
+    // The stored backtest settings, or the defaults when the workbook has none.
+    BacktestSettings backtestSettings() const { return m_contents.backtest.value_or(BacktestSettings{}); }
     bool hasPrices() const { return m_contents.prices.dayCount() > 0; }
 
     QUndoStack *undoStack() const { return m_undo; }
@@ -67,6 +69,7 @@ public:
     void applyAssumptions(const tailwise::Assumptions &assumptions);
     void applyPrices(const tailwise::PriceHistory &prices);
     void applyTitle(const QString &title);
+    void applyBacktestSettings(const std::optional<BacktestSettings> &settings);
 
     // --- For the scheduler. ---
     void setComputing(bool computing);
@@ -84,6 +87,9 @@ signals:
     void holdingsReset();
     void assumptionsChanged();
     void titleChanged();
+    // The backtest's own settings changed (not an input of the headline figures, so no
+    // inputsChanged: the backtest runner listens to both).
+    void backtestSettingsChanged();
     void contentsReset();      // after resetContents(): everything changed
     void inputsChanged();      // after any of the above: the scheduler listens to this one
     void resultsChanged();

@@ -9,13 +9,28 @@
 
 #include <QString>
 
+#include <optional>
+#include <vector>
+
 namespace tailwise::ui {
+
+// How the window backtests the holdings (backtest.h): the rolling window W, the test size at
+// which the Kupiec and Christoffersen tests give their verdict, and the models. The first model
+// is the one drawn and listed; the others, when there are any, are compared with it side by side.
+// The rest of the method (confidence, returns, estimator, λ, mean, ν) is the workbook's assumptions.
+struct BacktestSettings {
+    int window = 250;                                            // W, returns per forecast
+    double testSize = 0.05;                                      // reject when p-value < this
+    std::vector<tailwise::RiskModel> models{tailwise::RiskModel::Normal};
+    friend bool operator==(const BacktestSettings &, const BacktestSettings &) = default;
+};
 
 struct WorkbookContents {
     QString title;                 // shown in the window title and on reports
     tailwise::PriceHistory prices; // embedded: a workbook carries its own data
     tailwise::Holdings holdings;
     tailwise::Assumptions assumptions;
+    std::optional<BacktestSettings> backtest; // unset: the window's defaults (BacktestSettings{})
 };
 
 } // namespace tailwise::ui

@@ -1,5 +1,6 @@
 #include "workbookfile.h"
 
+#include "tailwise/backtest.h"
 #include "tailwise/date.h"
 
 #include <QDir>
@@ -12,6 +13,7 @@
 #include <QJsonValue>
 #include <QSaveFile>
 
+#include <algorithm>
 #include <charconv>
 #include <cmath>
 #include <limits>
@@ -309,6 +311,56 @@ void readAssumptions(const QJsonObject &o, Context &c, Assumptions &a)
     }
 }
 
+// --- Backtest settings (optional: a workbook without them reads as it did) ---
+
+QJsonObject backtestJson(const BacktestSettings &b)
+{
+    QJsonObject o;
+    o["window"] = b.window;
+    o["test-size"] = b.testSize;
+    QJsonArray models;
+    for (const RiskModel m : b.models)
+        models.append(nameJson(toName(m)));
+    o["models"] = models;
+    return o;
+}
+
+void readBacktest(const QJsonObject &o, Context &c, BacktestSettings &b)
+{
+    const std::string path = "backtest";
+    ObjectReader r(o, path, c);
+    r.whole("window", b.window);
+    if (c.ok() && b.window < 2)
+        return c.fail(ErrorKind::Assumption, r.pathOf("window"),
+                      "expected a window of at least 2 returns, found " + std::to_string(b.window));
+    r.number("test-size", b.testSize);
+    if (c.ok() && !(b.testSize > 0.0 && b.testSize < 1.0))
+        return c.fail(ErrorKind::Assumption, r.pathOf("test-size"),
+                      "expected a test size between 0 and 1 (e.g. 0.05), found " + shortest(b.testSize));
+    const QJsonArray models = r.array("models");
+    if (!c.ok())
+        return;
+    if (models.isEmpty())
+        return c.fail(ErrorKind::Format, r.pathOf("models"), "expected at least one model");
+    b.models.clear();
+    for (qsizetype i = 0; i < models.size(); ++i) {
+        const std::string at = element(r.pathOf("models"), i);
+        std::string name;
+        if (!readText(models[i], at, c, name, "a model name"))
+            return;
+        const auto model = parseRiskModel(name);
+        if (!model || !checkBacktestModel(*model).ok()) {
+            std::string known;
+            for (const RiskModel m : backtestModels())
+                known += (known.empty() ? "\"" : ", \"") + std::string(toName(m)) + "\"";
+            return c.fail(ErrorKind::Value, at, "expected a model the backtest runs (" + known + "), found \"" + name + "\"");
+        }
+        if (std::find(b.models.begin(), b.models.end(), *model) != b.models.end())
+            return c.fail(ErrorKind::Value, at, "the model \"" + name + "\" appears twice");
+        b.models.push_back(*model);
+    }
+}
+
 // --- Price history ---
 
 QJsonObject pricesJson(const PriceHistory &h)
@@ -494,6 +546,8 @@ QJsonObject contentsJson(const WorkbookContents &contents)
     root["prices"] = pricesJson(contents.prices);
     root["holdings"] = holdingsJson(contents.holdings);
     root["assumptions"] = assumptionsJson(contents.assumptions);
+    if (contents.backtest)
+        root["backtest"] = backtestJson(*contents.backtest);
     return root;
 }
 
@@ -528,6 +582,13 @@ Result<WorkbookContents> contentsFromJson(const QJsonObject &root, const std::st
     const QJsonObject assumptions = r.object("assumptions");
     if (c.ok())
         readAssumptions(assumptions, c, contents.assumptions);
+    if (c.ok() && r.has("backtest")) {
+        const QJsonObject backtest = r.object("backtest");
+        BacktestSettings settings;
+        if (c.ok())
+            readBacktest(backtest, c, settings);
+        contents.backtest = settings;
+    }
     if (!c.ok())
         return *c.problem;
     contents.prices.sourceName = source;

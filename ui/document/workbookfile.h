@@ -26,6 +26,11 @@
 //       "simulations": 100000, "seed": "1"  (a decimal string: JSON numbers cannot carry all
 //                                            64 bits; a whole JSON number up to 2^53 is accepted)
 //     }
+//     "backtest": {                     optional (absent in older files; a program that predates it
+//       "window": 250,                  ignores it, so the format stays 1): the window's backtest
+//       "test-size": 0.05,              settings (BacktestSettings in workbookcontents.h): window
+//       "models": ["normal", …]         ≥ 2 returns, 0 < test-size < 1, models a non-empty list of
+//     }                                 distinct models the backtest runs, the first one drawn
 //   }
 // Numbers are written in the shortest form that reads back to the same double, so a save →
 // load round trip is exact. A file is checked with the same rules as the CSV readers and the
