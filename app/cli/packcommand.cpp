@@ -4,13 +4,17 @@
 
 #include "document/workbookfile.h"
 
+#include "tailwise/backtest.h"
 #include "tailwise/holdings.h"
 #include "tailwise/prices.h"
 
 #include <QFile>
 #include <QString>
 
+#include <algorithm>
+#include <charconv>
 #include <cstdio>
+#include <optional>
 
 namespace tailwise::cli {
 
@@ -24,6 +28,49 @@ int fail(int code, const std::string &message)
 {
     std::fprintf(stderr, "tailwise-cli: %s\n", message.c_str());
     return code;
+}
+
+// --backtest-window W, --backtest-test-size A, --backtest-models LIST: the window's backtest
+// settings, stored when any of them is given. Ok, or the usage message naming the option.
+std::optional<std::string> readBacktestOption(const std::string &option, const std::string &value,
+                                              ui::BacktestSettings &b)
+{
+    if (option == "--backtest-window") {
+        int w = 0;
+        const auto [end, ec] = std::from_chars(value.data(), value.data() + value.size(), w);
+        if (value.empty() || ec != std::errc() || end != value.data() + value.size() || w < 2)
+            return option + ": expected a whole number of returns of at least 2, found \"" + value + "\"";
+        b.window = w;
+        return std::nullopt;
+    }
+    if (option == "--backtest-test-size") {
+        double a = 0.0;
+        const auto [end, ec] = std::from_chars(value.data(), value.data() + value.size(), a);
+        if (value.empty() || ec != std::errc() || end != value.data() + value.size() || !(a > 0.0 && a < 1.0))
+            return option + ": expected a test size between 0 and 1 (e.g. 0.05), found \"" + value + "\"";
+        b.testSize = a;
+        return std::nullopt;
+    }
+    b.models.clear();
+    std::size_t start = 0;
+    while (start <= value.size()) {
+        std::size_t end = value.find(',', start);
+        if (end == std::string::npos)
+            end = value.size();
+        const std::string name = value.substr(start, end - start);
+        const auto model = parseRiskModel(name);
+        if (!model || !checkBacktestModel(*model).ok()) {
+            std::string known;
+            for (const RiskModel m : backtestModels())
+                known += (known.empty() ? "" : ", ") + std::string(toName(m));
+            return option + ": expected models the backtest runs, separated by commas (" + known + "), found \"" + name + "\"";
+        }
+        if (std::find(b.models.begin(), b.models.end(), *model) != b.models.end())
+            return option + ": the model \"" + name + "\" appears twice";
+        b.models.push_back(*model);
+        start = end + 1;
+    }
+    return std::nullopt;
 }
 
 } // namespace
@@ -40,6 +87,10 @@ Usage:
   --title T            the workbook's title, shown in the window and on reports
   --out FILE           the workbook to write (JSON, extension .tailwise); written atomically,
                        an existing file is replaced only when the new one is complete
+  --backtest-window W  the window's backtest settings, stored when any of these three is given:
+  --backtest-test-size A   rolling window of W returns (default 250), test size of the verdicts
+  --backtest-models LIST   (default 0.05) and the models, comma-separated, the first one drawn
+                       and the others compared with it (default normal)
 
 The assumption options are those of tailwise-cli var (--confidence, --horizon, --window,
 --estimator, ...); they are stored in the workbook, which then carries the whole analysis:
@@ -53,6 +104,7 @@ int runPackCommand(const std::vector<std::string> &args)
 {
     std::vector<std::string> varArgs;
     std::string title, out;
+    std::optional<ui::BacktestSettings> backtest;
     for (std::size_t i = 0; i < args.size(); ++i) {
         const std::string &option = args[i];
         if (option == "--help" || option == "-h") {
@@ -63,6 +115,15 @@ int runPackCommand(const std::vector<std::string> &args)
             if (i + 1 >= args.size())
                 return fail(exitUsage, option + ": expected a value after the option");
             (option == "--title" ? title : out) = args[++i];
+            continue;
+        }
+        if (option == "--backtest-window" || option == "--backtest-test-size" || option == "--backtest-models") {
+            if (i + 1 >= args.size())
+                return fail(exitUsage, option + ": expected a value after the option");
+            if (!backtest)
+                backtest = ui::BacktestSettings{};
+            if (const auto problem = readBacktestOption(option, args[++i], *backtest))
+                return fail(exitUsage, *problem);
             continue;
         }
         // Outputs and one-off questions (what-if trades, stress) are not part of a workbook.
@@ -92,6 +153,7 @@ int runPackCommand(const std::vector<std::string> &args)
     contents.prices = std::move(prices).value();
     contents.holdings = std::move(holdings).value();
     contents.assumptions = req.assumptions;
+    contents.backtest = backtest;
     const auto saved = ui::saveWorkbook(contents, QFile::decodeName(out.c_str()));
     if (!saved)
         return fail(exitBadInput, saved.error().message);

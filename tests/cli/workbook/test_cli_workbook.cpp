@@ -87,6 +87,8 @@ void TestCliWorkbook::sampleIsRebuiltByTheDocumentedCommand()
     QTemporaryDir dir;
     const QString out = dir.filePath(QStringLiteral("larchmere.tailwise"));
     const Run pack = cli(QStringList{"pack"} + csvInputs() + sampleAssumptions
+                         + QStringList{"--backtest-window", "250", "--backtest-test-size", "0.05", "--backtest-models",
+                                       "normal,student-t,cornish-fisher,historical"}
                          + QStringList{"--title", "Larchmere Balanced Fund", "--out", out});
     TW_RUN_OK(pack);
     QFile rebuilt(out), committed(sample("larchmere.tailwise"));
