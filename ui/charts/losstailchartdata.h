@@ -40,9 +40,10 @@ struct LossTailOptions {
     int histogramBins = 0;  // 0: choose by the Freedman–Diaconis rule (clamped to 12…80)
     double spanSd = 4.5;    // the x range covers μ_h ± spanSd·σ_h (and the whole histogram)
     // Reports of other models at the same inputs, each drawn as a line with its legend; not owned.
-    std::vector<std::pair<QString, const RiskReport *>> overlays;
+    // (Default member initialisers keep brace-initialised options of the fields above warning-free.)
+    std::vector<std::pair<QString, const RiskReport *>> overlays{};
     const RiskReport *ghost = nullptr; // what-if: the portfolio before the trades; not owned
-    QString ghostLegend;
+    QString ghostLegend{};
 };
 
 struct LossTailOverlay {
