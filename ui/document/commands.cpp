@@ -128,6 +128,21 @@ private:
     QString m_after;
 };
 
+class SetScenariosCommand : public QUndoCommand {
+public:
+    SetScenariosCommand(Workbook &wb, std::vector<StressScenario> after, const QString &text)
+        : QUndoCommand(text), m_wb(wb), m_before(wb.scenarios()), m_after(std::move(after))
+    {
+    }
+    void redo() override { m_wb.applyScenarios(m_after); }
+    void undo() override { m_wb.applyScenarios(m_before); }
+
+private:
+    Workbook &m_wb;
+    std::vector<StressScenario> m_before;
+    std::vector<StressScenario> m_after;
+};
+
 class SetBacktestSettingsCommand : public QUndoCommand {
 public:
     SetBacktestSettingsCommand(Workbook &wb, BacktestSettings after, const QString &text, MergeKey key)
@@ -213,6 +228,11 @@ void setTitle(Workbook &wb, const QString &title)
     if (title == wb.title())
         return;
     wb.undoStack()->push(new SetTitleCommand(wb, title));
+}
+
+void setScenarios(Workbook &wb, const std::vector<StressScenario> &scenarios, const QString &text)
+{
+    wb.undoStack()->push(new SetScenariosCommand(wb, scenarios, text));
 }
 
 void setBacktestSettings(Workbook &wb, const BacktestSettings &settings, const QString &text, MergeKey key)

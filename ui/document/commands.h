@@ -44,5 +44,8 @@ void setTitle(Workbook &workbook, const QString &title);
 // same non-None key merge. Does nothing when they are what the workbook already has.
 void setBacktestSettings(Workbook &workbook, const BacktestSettings &settings, const QString &text,
                          MergeKey key = MergeKey::None);
+// Replaces the list of stress scenarios (add, rename, edit a shock, remove) in one step.
+// Precondition: every shocked asset is in the workbook's price history.
+void setScenarios(Workbook &workbook, const std::vector<tailwise::StressScenario> &scenarios, const QString &text);
 
 } // namespace tailwise::ui::edit

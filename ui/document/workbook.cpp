@@ -122,6 +122,12 @@ void Workbook::applyBacktestSettings(const std::optional<BacktestSettings> &sett
     emit backtestSettingsChanged();
 }
 
+void Workbook::applyScenarios(const std::vector<StressScenario> &scenarios)
+{
+    m_contents.scenarios = scenarios;
+    emit scenariosChanged();
+}
+
 void Workbook::setComputing(bool computing)
 {
     if (computing == m_computing)

@@ -36,6 +36,7 @@ public:
     const tailwise::PriceHistory &prices() const { return m_contents.prices; }
     const tailwise::Holdings &holdings() const { return m_contents.holdings; }
     const tailwise::Assumptions &assumptions() const { return m_contents.assumptions; }
+    const std::vector<tailwise::StressScenario> &scenarios() const { return m_contents.scenarios; }
     QString title() const { return m_contents.title; }
     // The stored backtest settings, or the defaults when the workbook has none.
     BacktestSettings backtestSettings() const { return m_contents.backtest.value_or(BacktestSettings{}); }
@@ -69,6 +70,8 @@ public:
     void applyAssumptions(const tailwise::Assumptions &assumptions);
     void applyPrices(const tailwise::PriceHistory &prices);
     void applyTitle(const QString &title);
+    // Scenarios do not feed the risk figures, so they change no input generation.
+    void applyScenarios(const std::vector<tailwise::StressScenario> &scenarios);
     void applyBacktestSettings(const std::optional<BacktestSettings> &settings);
 
     // --- For the scheduler. ---
@@ -87,6 +90,7 @@ signals:
     void holdingsReset();
     void assumptionsChanged();
     void titleChanged();
+    void scenariosChanged();
     // The backtest's own settings changed (not an input of the headline figures, so no
     // inputsChanged: the backtest runner listens to both).
     void backtestSettingsChanged();

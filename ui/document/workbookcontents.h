@@ -6,6 +6,7 @@
 #include "tailwise/assumptions.h"
 #include "tailwise/holdings.h"
 #include "tailwise/prices.h"
+#include "tailwise/stress.h"
 
 #include <QString>
 
@@ -31,6 +32,8 @@ struct WorkbookContents {
     tailwise::Holdings holdings;
     tailwise::Assumptions assumptions;
     std::optional<BacktestSettings> backtest; // unset: the window's defaults (BacktestSettings{})
+    // Named per-asset price shocks (stress.h), in the order shown; every asset is in `prices`.
+    std::vector<tailwise::StressScenario> scenarios;
 };
 
 } // namespace tailwise::ui

@@ -535,6 +535,72 @@ void readHoldings(const QJsonArray &list, const PriceHistory &prices, Context &c
     }
 }
 
+// --- Stress scenarios (optional: files written before scenarios existed have none) ---
+
+QJsonArray scenariosJson(const std::vector<StressScenario> &scenarios)
+{
+    QJsonArray list;
+    for (const StressScenario &sc : scenarios) {
+        QJsonArray shocks;
+        for (const auto &[asset, shock] : sc.shocks) {
+            QJsonObject o;
+            o["asset"] = QString::fromStdString(asset);
+            o["shock"] = shock;
+            shocks.append(o);
+        }
+        QJsonObject o;
+        o["name"] = QString::fromStdString(sc.name);
+        o["shocks"] = shocks;
+        list.append(o);
+    }
+    return list;
+}
+
+// The rules of a scenario CSV (stress.h): a known asset, once per scenario; a finite shock above −1.
+void readScenarios(const QJsonArray &list, const PriceHistory &prices, Context &c, std::vector<StressScenario> &out)
+{
+    const std::string path = "scenarios";
+    std::unordered_set<std::string> names;
+    for (qsizetype i = 0; i < list.size() && c.ok(); ++i) {
+        const std::string at = element(path, i);
+        if (!list[i].isObject())
+            return c.fail(ErrorKind::Format, at, "expected an object with a \"name\" and \"shocks\", found " + describe(list[i]));
+        const QJsonObject o = list[i].toObject();
+        ObjectReader r(o, at, c);
+        StressScenario sc;
+        r.string("name", sc.name);
+        if (c.ok() && sc.name.empty())
+            return c.fail(ErrorKind::Format, r.pathOf("name"), "expected a scenario name, found an empty text");
+        if (c.ok() && !names.insert(sc.name).second)
+            return c.fail(ErrorKind::Reference, r.pathOf("name"), "the scenario \"" + sc.name + "\" appears twice");
+        const QJsonArray shocks = r.array("shocks");
+        std::unordered_set<std::string> assets;
+        for (qsizetype k = 0; k < shocks.size() && c.ok(); ++k) {
+            const std::string sat = element(r.pathOf("shocks"), k);
+            if (!shocks[k].isObject())
+                return c.fail(ErrorKind::Format, sat, "expected an object with an \"asset\" and a \"shock\", found "
+                                                          + describe(shocks[k]));
+            const QJsonObject so = shocks[k].toObject();
+            ObjectReader sr(so, sat, c);
+            std::string asset;
+            double shock = 0.0;
+            sr.string("asset", asset);
+            sr.number("shock", shock);
+            if (!c.ok())
+                return;
+            if (prices.assetIndex(asset) < 0)
+                return c.fail(ErrorKind::Reference, sr.pathOf("asset"), "the asset \"" + asset + "\" is not in the price history");
+            if (!assets.insert(asset).second)
+                return c.fail(ErrorKind::Reference, sr.pathOf("asset"), "the asset \"" + asset + "\" is shocked twice");
+            if (shock <= -1.0)
+                return c.fail(ErrorKind::Value, sr.pathOf("shock"),
+                              "expected a shock above -1 (a price cannot fall to zero or beneath), found " + shortest(shock));
+            sc.shocks.emplace_back(std::move(asset), shock);
+        }
+        out.push_back(std::move(sc));
+    }
+}
+
 // --- The whole file ---
 
 QJsonObject contentsJson(const WorkbookContents &contents)
@@ -548,6 +614,8 @@ QJsonObject contentsJson(const WorkbookContents &contents)
     root["assumptions"] = assumptionsJson(contents.assumptions);
     if (contents.backtest)
         root["backtest"] = backtestJson(*contents.backtest);
+    if (!contents.scenarios.empty())
+        root["scenarios"] = scenariosJson(contents.scenarios);
     return root;
 }
 
@@ -588,6 +656,11 @@ Result<WorkbookContents> contentsFromJson(const QJsonObject &root, const std::st
         if (c.ok())
             readBacktest(backtest, c, settings);
         contents.backtest = settings;
+    }
+    if (c.ok() && r.has("scenarios")) {
+        const QJsonArray scenarios = r.array("scenarios");
+        if (c.ok())
+            readScenarios(scenarios, contents.prices, c, contents.scenarios);
     }
     if (!c.ok())
         return *c.problem;

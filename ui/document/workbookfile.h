@@ -25,7 +25,12 @@
 //       "dof": "unset" | "fit" | ν, "historical-horizon": "sqrt" | "overlapping",
 //       "simulations": 100000, "seed": "1"  (a decimal string: JSON numbers cannot carry all
 //                                            64 bits; a whole JSON number up to 2^53 is accepted)
-//     }
+//     },
+//     "scenarios": [                    optional (absent in older files, and when there are none):
+//       {"name": "…", "shocks": [       named stress scenarios (stress.h); names unique, not empty;
+//         {"asset": "A", "shock": -0.2} a price-history asset, once per scenario; a fraction > −1
+//       ]}
+//     ]
 //     "backtest": {                     optional (absent in older files; a program that predates it
 //       "window": 250,                  ignores it, so the format stays 1): the window's backtest
 //       "test-size": 0.05,              settings (BacktestSettings in workbookcontents.h): window

@@ -6,6 +6,10 @@
 #include "document/commands.h"
 #include "document/workbook.h"
 #include "localnumbers.h"
+#include "backtestview.h"
+#include "modelcomparisonview.h"
+#include "stresspanel.h"
+#include "whatifpanel.h"
 
 #include <QCheckBox>
 #include <QHBoxLayout>
@@ -31,9 +35,15 @@ ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_w
     m_history->setChecked(true);
     m_history->setToolTip(tr("Bars: today's holdings applied to each day of the window, scaled by the square root "
                              "of the horizon — the data the model was fitted to."));
+    m_overlay = new QCheckBox(tr("Draw the other models' curves"), tailPage);
+    m_overlay->setObjectName(QStringLiteral("modelOverlay"));
+    m_overlay->setToolTip(tr("Lines: the P&L density the Student-t and Cornish–Fisher models give at the same "
+                             "assumptions, over the bars of the window's history (historical and Monte Carlo have "
+                             "no curve of their own)."));
     auto *tailOptions = new QHBoxLayout;
     tailOptions->addWidget(m_percent);
     tailOptions->addWidget(m_history);
+    tailOptions->addWidget(m_overlay);
     tailOptions->addStretch();
     auto *tailLayout = new QVBoxLayout(tailPage);
     tailLayout->setContentsMargins(0, 4, 0, 0);
@@ -49,6 +59,22 @@ ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_w
     m_contributions = new ContributionsChart(m_tabs);
     m_tabs->addTab(m_contributions, tr("What drives it"));
     m_tabs->setTabToolTip(2, tr("Each holding's part of VaR; hedges lower it. Also what diversification saves."));
+
+    m_comparison = new ModelComparisonView(workbook, m_tabs);
+    m_tabs->addTab(m_comparison, tr("Models side by side"));
+    m_tabs->setTabToolTip(3, tr("VaR and ES of every model at the same assumptions, and how far each is from the normal."));
+    m_whatIf = new WhatIfPanel(workbook, m_tabs);
+    m_tabs->addTab(m_whatIf, tr("Try a trade"));
+    m_tabs->setTabToolTip(4, tr("What proposed trades would do to VaR, before you make them."));
+    m_stress = new StressPanel(workbook, m_tabs);
+    m_tabs->addTab(m_stress, tr("Stress"));
+    m_tabs->setTabToolTip(5, tr("The P&L of named price shocks and of the window's worst days on today's holdings."));
+
+    // The backtest runs its own background jobs and redraws itself (backtestview.h).
+    m_backtest = new BacktestView(workbook, m_tabs);
+    const int backtestTab = m_tabs->addTab(m_backtest, tr("Backtest"));
+    m_tabs->setTabToolTip(backtestTab, tr("Would the model's one-day VaR have held up? Each past day's P&L against "
+                                          "its VaR forecast, the exceptions, and the tests' verdict."));
 
     m_empty = new QLabel(this);
     m_empty->setAlignment(Qt::AlignCenter);
@@ -67,6 +93,7 @@ ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_w
     connect(m_tabs, &QTabWidget::currentChanged, this, &ChartTabs::refreshTab);
     connect(m_percent, &QCheckBox::toggled, this, &ChartTabs::refreshLossTail);
     connect(m_history, &QCheckBox::toggled, this, &ChartTabs::refreshLossTail);
+    connect(m_overlay, &QCheckBox::toggled, this, &ChartTabs::refreshLossTail);
     connect(m_tradeoff, &TradeoffChart::assumptionsPicked, this, [this](int horizonDays, double confidence) {
         Assumptions a = m_workbook.assumptions();
         if (a.horizonDays == horizonDays && a.confidence == confidence)
@@ -87,6 +114,25 @@ void ChartTabs::refreshLossTail()
     LossTailOptions options;
     options.unit = m_percent->isChecked() ? LossTailUnit::PercentOfValue : LossTailUnit::Money;
     options.showHistory = m_history->isChecked();
+    m_overlayReports.clear();
+    if (m_overlay->isChecked()) {
+        // The models with a closed density, at the same inputs; core computes each one. (The main
+        // curve is already the normal one, whatever the model.)
+        for (const RiskModel model : {RiskModel::StudentT, RiskModel::CornishFisher}) {
+            if (model == report->assumptions.model)
+                continue;
+            Assumptions a = m_workbook.assumptions();
+            a.model = model;
+            if (auto other = computeRisk(m_workbook.prices(), m_workbook.holdings(), a); other && other.value().model.used == model)
+                m_overlayReports.push_back(std::move(other).value());
+        }
+        for (const RiskReport &r : m_overlayReports) {
+            const QString name = r.model.used == RiskModel::StudentT
+                                     ? tr("Student-t (ν = %1)").arg(QLocale().toString(r.model.dof.value_or(0.0), 'f', 1))
+                                     : tr("Cornish–Fisher");
+            options.overlays.emplace_back(tr("%1 model: VaR %2").arg(name, moneyText(r.figures.var, 0)), &r);
+        }
+    }
     m_lossTail->setData(buildLossTailChartData(*report, options));
 }
 

@@ -1,11 +1,15 @@
 // ChartTabs: the three pictures of the figures as tabs — the loss tail, horizon and confidence,
 // contributions — fed from the workbook's report through each chart's pure build function.
-// A click on the horizon × confidence map becomes an assumptions edit.
+// A click on the horizon × confidence map becomes an assumptions edit. Three more tabs hold the
+// panels that go beyond one model's figures: every model side by side, trying a trade, and stress.
 #pragma once
+
+#include "tailwise/risk.h"
 
 #include <QWidget>
 
 #include <array>
+#include <vector>
 
 class QCheckBox;
 class QLabel;
@@ -14,8 +18,12 @@ class QTabWidget;
 
 namespace tailwise::ui {
 
+class BacktestView;
 class ContributionsChart;
 class LossTailChart;
+class ModelComparisonView;
+class StressPanel;
+class WhatIfPanel;
 class TradeoffChart;
 class Workbook;
 
@@ -28,6 +36,11 @@ public:
     TradeoffChart *tradeoffChart() const { return m_tradeoff; }
     ContributionsChart *contributionsChart() const { return m_contributions; }
     QTabWidget *tabs() const { return m_tabs; }
+    BacktestView *backtestView() const { return m_backtest; }
+    ModelComparisonView *modelComparison() const { return m_comparison; }
+    WhatIfPanel *whatIfPanel() const { return m_whatIf; }
+    StressPanel *stressPanel() const { return m_stress; }
+    QCheckBox *modelOverlayOption() const { return m_overlay; }
 
 private:
     void refresh();
@@ -43,6 +56,12 @@ private:
     QCheckBox *m_history = nullptr;
     TradeoffChart *m_tradeoff = nullptr;
     ContributionsChart *m_contributions = nullptr;
+    BacktestView *m_backtest = nullptr;
+    QCheckBox *m_overlay = nullptr; // draw the other models' densities on the loss tail
+    std::vector<RiskReport> m_overlayReports; // kept while the chart data points at them
+    ModelComparisonView *m_comparison = nullptr;
+    WhatIfPanel *m_whatIf = nullptr;
+    StressPanel *m_stress = nullptr;
     std::array<bool, 3> m_stale{true, true, true}; // tab needs new data before it is drawn
 };
 
