@@ -137,6 +137,7 @@ QTableWidget *makeTable(const QStringList &headers, QWidget *parent)
     t->setAlternatingRowColors(true);
     t->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
     t->horizontalHeader()->setStretchLastSection(true);
+    t->verticalHeader()->setDefaultSectionSize(t->fontMetrics().height() + 6);
     return t;
 }
 
@@ -235,32 +236,39 @@ BacktestView::BacktestView(Workbook &workbook, QWidget *parent) : QWidget(parent
     m_tests->setTextInteractionFlags(Qt::TextSelectableByMouse);
     auto *testsLayout = new QVBoxLayout(testsBox);
     testsLayout->addWidget(m_tests);
-    testsLayout->addStretch();
 
     m_exceptionsBox = new QGroupBox(tr("Exceptions"), results);
-    m_exceptions = makeTable({tr("Date"), tr("P&L"), tr("VaR"), tr("Loss beyond VaR")}, m_exceptionsBox);
+    m_exceptions = makeTable({tr("Date"), tr("P&L"), tr("VaR"), tr("Beyond VaR")}, m_exceptionsBox);
+    m_exceptions->setToolTip(tr("Each day whose loss was greater than its VaR forecast, and by how much."));
     auto *exceptionsLayout = new QVBoxLayout(m_exceptionsBox);
     exceptionsLayout->addWidget(m_exceptions);
 
     m_comparisonBox = new QGroupBox(tr("Models side by side"), results);
-    m_comparison = makeTable({tr("Model"), tr("Exceptions"), tr("Expected"), tr("Kupiec p"), tr("Independence p"),
-                              tr("Coverage p"), tr("Zone"), tr("Verdict")},
+    m_comparison = makeTable({tr("Model"), tr("Exceptions"), tr("Kupiec p"), tr("Independence p"), tr("Coverage p"),
+                              tr("Zone"), tr("Verdict")},
                              m_comparisonBox);
+    m_comparison->setToolTip(tr("Every model backtested over the same days at the same window, confidence and test size."));
+    // Room for the four models without scrolling.
+    m_comparison->setMinimumHeight((m_comparison->fontMetrics().height() + 6) * 6 + 4);
     auto *comparisonLayout = new QVBoxLayout(m_comparisonBox);
     comparisonLayout->addWidget(m_comparison);
 
     auto *lower = new QWidget(results);
     auto *lowerLayout = new QHBoxLayout(lower);
     lowerLayout->setContentsMargins(0, 0, 0, 0);
-    lowerLayout->addWidget(testsBox, 3);
+    // The tests and the models side by side in one column (both read across), the list of
+    // exceptions beside them.
+    auto *left = new QVBoxLayout;
+    left->addWidget(testsBox, 0);
+    left->addWidget(m_comparisonBox, 1);
+    lowerLayout->addLayout(left, 3);
     lowerLayout->addWidget(m_exceptionsBox, 2);
-    lowerLayout->addWidget(m_comparisonBox, 4);
 
     auto *split = new QSplitter(Qt::Vertical, results);
     split->addWidget(m_chart);
     split->addWidget(lower);
-    split->setStretchFactor(0, 3);
-    split->setStretchFactor(1, 2);
+    split->setStretchFactor(0, 1);
+    split->setStretchFactor(1, 1);
     split->setChildrenCollapsible(false);
 
     m_warnings = new QLabel(results);
@@ -409,9 +417,12 @@ void BacktestView::showResult(const BacktestResult &r)
     if (v.coverageRejected)
         rejected << tr("conditional coverage");
     m_verdict->setStyleSheet(QStringLiteral("QLabel { border: 1px solid #9aa3ab; border-radius: 4px; padding: 6px; }"));
-    m_verdict->setText(v.passed ? tr("<b>Passed</b> at the %1 test size: no test rejects the %2 model.").arg(sizeText(size), model)
-                                : tr("<b>Not passed</b> at the %1 test size: rejected by %2.")
-                                      .arg(sizeText(size), rejected.join(tr(", "))));
+    m_verdict->setText((v.passed ? tr("<b>Passed</b> at the %1 test size: no test rejects the %2 model.").arg(sizeText(size), model)
+                                 : tr("<b>Not passed</b> at the %1 test size: rejected by %2.")
+                                       .arg(sizeText(size), rejected.join(tr(", "))))
+                       + QStringLiteral("<br><small>")
+                       + tr("The zone counts the exceptions alone; the tests weigh them, and their timing, against chance.")
+                       + QStringLiteral("</small>"));
 
     m_chart->setData(buildBacktestChartData(r, model));
 
@@ -458,6 +469,10 @@ void BacktestView::fillComparison()
 {
     const BacktestRun &run = m_runner->run();
     m_comparisonBox->setVisible(run.models.size() > 1);
+    const auto &main = run.models.front().result;
+    m_comparisonBox->setTitle(main && main->ok() ? tr("Models side by side (%1 exceptions expected)")
+                                                       .arg(number(main->value().expectedExceptions, 1))
+                                                 : tr("Models side by side"));
     m_comparison->setRowCount(static_cast<int>(run.models.size()));
     const QLocale locale;
     for (int i = 0; i < static_cast<int>(run.models.size()); ++i) {
@@ -470,21 +485,18 @@ void BacktestView::fillComparison()
             continue;
         }
         if (!*m.result) {
-            m_comparison->setItem(i, 7, cell(tr("could not run: %1").arg(QString::fromStdString(m.result->error().message)),
+            m_comparison->setItem(i, 6, cell(tr("could not run: %1").arg(QString::fromStdString(m.result->error().message)),
                                              Qt::AlignLeft | Qt::AlignVCenter));
             continue;
         }
         const BacktestResult &r = m.result->value();
         const BacktestVerdict v = verdictAt(r, run.settings.testSize);
         m_comparison->setItem(i, 1, cell(locale.toString(r.exceptions)));
-        m_comparison->setItem(i, 2, cell(number(r.expectedExceptions, 1)));
-        m_comparison->setItem(i, 3, cell(pValueText(r.kupiec.pValue)));
-        m_comparison->setItem(i, 4, cell(pValueText(r.christoffersen.independence.pValue)));
-        m_comparison->setItem(i, 5, cell(pValueText(r.christoffersen.conditionalCoverage.pValue)));
-        m_comparison->setItem(i, 6, cell(zoneName(r.zone.zone), Qt::AlignLeft | Qt::AlignVCenter));
-        m_comparison->setItem(i, 7, cell(v.passed ? tr("passed at %1").arg(sizeText(run.settings.testSize))
-                                                  : tr("not passed at %1").arg(sizeText(run.settings.testSize)),
-                                         Qt::AlignLeft | Qt::AlignVCenter));
+        m_comparison->setItem(i, 2, cell(pValueText(r.kupiec.pValue)));
+        m_comparison->setItem(i, 3, cell(pValueText(r.christoffersen.independence.pValue)));
+        m_comparison->setItem(i, 4, cell(pValueText(r.christoffersen.conditionalCoverage.pValue)));
+        m_comparison->setItem(i, 5, cell(zoneName(r.zone.zone), Qt::AlignLeft | Qt::AlignVCenter));
+        m_comparison->setItem(i, 6, cell(v.passed ? tr("passed") : tr("not passed"), Qt::AlignLeft | Qt::AlignVCenter));
     }
 }
 
