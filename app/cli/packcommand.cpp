@@ -7,6 +7,7 @@
 #include "tailwise/backtest.h"
 #include "tailwise/holdings.h"
 #include "tailwise/prices.h"
+#include "tailwise/stress.h"
 
 #include <QFile>
 #include <QString>
@@ -91,6 +92,9 @@ Usage:
   --backtest-test-size A   rolling window of W returns (default 250), test size of the verdicts
   --backtest-models LIST   (default 0.05) and the models, comma-separated, the first one drawn
                        and the others compared with it (default normal)
+  --scenario FILE      a stress scenario to keep in the workbook (CSV asset,shock as for
+                       tailwise-cli var; named by the file name without folder and extension);
+                       repeatable, kept in the order given, names must differ
 
 The assumption options are those of tailwise-cli var (--confidence, --horizon, --window,
 --estimator, ...); they are stored in the workbook, which then carries the whole analysis:
@@ -105,6 +109,7 @@ int runPackCommand(const std::vector<std::string> &args)
     std::vector<std::string> varArgs;
     std::string title, out;
     std::optional<ui::BacktestSettings> backtest;
+    std::vector<std::string> scenarioPaths;
     for (std::size_t i = 0; i < args.size(); ++i) {
         const std::string &option = args[i];
         if (option == "--help" || option == "-h") {
@@ -126,9 +131,15 @@ int runPackCommand(const std::vector<std::string> &args)
                 return fail(exitUsage, *problem);
             continue;
         }
-        // Outputs and one-off questions (what-if trades, stress) are not part of a workbook.
+        if (option == "--scenario") {
+            if (i + 1 >= args.size())
+                return fail(exitUsage, option + ": expected a scenario file (CSV) after the option");
+            scenarioPaths.push_back(args[++i]);
+            continue;
+        }
+        // Outputs and one-off questions (what-if trades, the worst days) are not part of a workbook.
         if (option == "--json" || option == "--workbook" || option == "--value" || option == "--volatility"
-            || option == "--drift" || option == "--trade" || option == "--scenario" || option == "--worst-days")
+            || option == "--drift" || option == "--trade" || option == "--worst-days")
             return fail(exitUsage, option + ": not an option of pack (see tailwise-cli pack --help)");
         varArgs.push_back(option);
     }
@@ -148,12 +159,25 @@ int runPackCommand(const std::vector<std::string> &args)
     for (const auto &w : prices.value().warnings)
         std::fprintf(stderr, "tailwise-cli: warning: %s\n", w.c_str());
 
+    std::vector<StressScenario> scenarios;
+    for (const std::string &path : scenarioPaths) {
+        auto scenario = readScenarioCsv(path, &prices.value());
+        if (!scenario)
+            return fail(exitBadInput, scenario.error().message);
+        for (const StressScenario &s : scenarios)
+            if (s.name == scenario.value().name)
+                return fail(exitUsage, "--scenario " + path + ": a scenario named \"" + s.name
+                                           + "\" is already given (names come from the file names)");
+        scenarios.push_back(std::move(scenario).value());
+    }
+
     ui::WorkbookContents contents;
     contents.title = QString::fromStdString(title);
     contents.prices = std::move(prices).value();
     contents.holdings = std::move(holdings).value();
     contents.assumptions = req.assumptions;
     contents.backtest = backtest;
+    contents.scenarios = std::move(scenarios);
     const auto saved = ui::saveWorkbook(contents, QFile::decodeName(out.c_str()));
     if (!saved)
         return fail(exitBadInput, saved.error().message);

@@ -89,6 +89,8 @@ void TestCliWorkbook::sampleIsRebuiltByTheDocumentedCommand()
     const Run pack = cli(QStringList{"pack"} + csvInputs() + sampleAssumptions
                          + QStringList{"--backtest-window", "250", "--backtest-test-size", "0.05", "--backtest-models",
                                        "normal,student-t,cornish-fisher,historical"}
+                         + QStringList{"--scenario", sample("scenarios/Equity drawdown -20%.csv"), "--scenario",
+                                       sample("scenarios/Rates up, bonds -5%.csv")}
                          + QStringList{"--title", "Larchmere Balanced Fund", "--out", out});
     TW_RUN_OK(pack);
     QFile rebuilt(out), committed(sample("larchmere.tailwise"));
