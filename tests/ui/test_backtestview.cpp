@@ -11,7 +11,10 @@
 #include "document/commands.h"
 #include "document/workbook.h"
 #include "document/workbookfile.h"
+#include "document/recomputescheduler.h"
+#include "mainwindow.h"
 #include "panels/backtestview.h"
+#include "panels/charttabs.h"
 
 #include "tailwise/backtest.h"
 
@@ -22,6 +25,7 @@
 #include <QJsonObject>
 #include <QSignalSpy>
 #include <QSpinBox>
+#include <QTabWidget>
 #include <QTableWidget>
 #include <QTest>
 #include <QUndoStack>
@@ -71,6 +75,7 @@ private slots:
     void sampleWorkbookHasBacktestSettings();
     void settingsEditIsOneUndoStep();
     void picture();
+    void windowHasTheBacktestTab();
 };
 
 void TestBacktestView::chartDataExceptionsEqualCore()
@@ -384,6 +389,30 @@ void TestBacktestView::picture()
     QVERIFY(!pixmap.isNull());
     if (const QByteArray path = qgetenv("TAILWISE_BACKTEST_PICTURE"); !path.isEmpty())
         QVERIFY(pixmap.save(QString::fromLocal8Bit(path), "PNG"));
+}
+
+void TestBacktestView::windowHasTheBacktestTab()
+{
+    // The window's chart tabs hold the view; TAILWISE_BACKTEST_WINDOW_PICTURE names a PNG of the
+    // whole window with the Backtest tab open.
+    MainWindow window;
+    QVERIFY(window.openWorkbookFile(samplePath()).isEmpty());
+    window.resize(1280, 900);
+    window.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&window));
+    window.scheduler().computeNow();
+    QTabWidget *tabs = window.chartTabs()->tabs();
+    BacktestView *view = window.chartTabs()->backtestView();
+    QVERIFY(view);
+    const int index = tabs->indexOf(view);
+    QVERIFY(index >= 0);
+    QCOMPARE(tabs->tabText(index), QStringLiteral("Backtest"));
+    tabs->setCurrentIndex(index);
+    view->runner().runNow();
+    QVERIFY2(view->zoneText().contains(QStringLiteral(" zone")), qPrintable(view->messageText()));
+    QTest::qWait(50);
+    if (const QByteArray path = qgetenv("TAILWISE_BACKTEST_WINDOW_PICTURE"); !path.isEmpty())
+        QVERIFY(window.grab().save(QString::fromLocal8Bit(path), "PNG"));
 }
 
 QTEST_MAIN(TestBacktestView)

@@ -17,6 +17,7 @@
 #include <QLocale>
 #include <QProgressBar>
 #include <QPushButton>
+#include <QScrollArea>
 #include <QSignalBlocker>
 #include <QSpinBox>
 #include <QSplitter>
@@ -270,6 +271,17 @@ BacktestView::BacktestView(Workbook &workbook, QWidget *parent) : QWidget(parent
     split->setStretchFactor(0, 1);
     split->setStretchFactor(1, 1);
     split->setChildrenCollapsible(false);
+    // A chart tall enough to read; when the tab is shorter than chart and figures together, the
+    // details scroll (the zone and the verdict above stay in view).
+    m_chart->setMinimumHeight(260);
+    auto *details = new QWidget(results);
+    auto *detailsLayout = new QVBoxLayout(details);
+    detailsLayout->setContentsMargins(0, 0, 0, 0);
+    detailsLayout->addWidget(split, 1);
+    auto *scroll = new QScrollArea(results);
+    scroll->setWidgetResizable(true);
+    scroll->setFrameShape(QFrame::NoFrame);
+    scroll->setWidget(details);
 
     m_warnings = new QLabel(results);
     m_warnings->setWordWrap(true);
@@ -281,8 +293,8 @@ BacktestView::BacktestView(Workbook &workbook, QWidget *parent) : QWidget(parent
     lines->addWidget(m_zone, 1);
     lines->addWidget(m_verdict, 1);
     resultsLayout->addLayout(lines);
-    resultsLayout->addWidget(split, 1);
-    resultsLayout->addWidget(m_warnings);
+    resultsLayout->addWidget(scroll, 1);
+    detailsLayout->addWidget(m_warnings);
 
     m_stack = new QStackedWidget(this);
     m_stack->addWidget(m_message);
