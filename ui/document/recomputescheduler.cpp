@@ -31,6 +31,9 @@ RecomputeScheduler::RecomputeScheduler(Workbook &workbook, QObject *parent) : QO
     m_timer.setInterval(0);
     connect(&m_timer, &QTimer::timeout, this, &RecomputeScheduler::run);
     connect(&m_workbook, &Workbook::inputsChanged, this, &RecomputeScheduler::schedule);
+    // A new price history invalidates the cached estimate (see m_estimates).
+    connect(&m_workbook, &Workbook::pricesChanged, this, [this] { ++m_pricesRevision; });
+    connect(&m_workbook, &Workbook::contentsReset, this, [this] { ++m_pricesRevision; });
 }
 
 RecomputeScheduler::~RecomputeScheduler()
@@ -63,7 +66,8 @@ void RecomputeScheduler::computeNow()
         return;
     }
     m_workbook.publishResult(m_workbook.inputGeneration(),
-                             computeRisk(m_workbook.prices(), m_workbook.holdings(), m_workbook.assumptions()));
+                             computeRisk(m_workbook.prices(), m_workbook.holdings(), m_workbook.assumptions(),
+                                         RunControl{}, m_estimates, m_pricesRevision));
     m_workbook.setComputing(false);
 }
 

@@ -9,9 +9,12 @@
 // GUI thread as progress() signals (at most one per percent, so the event queue never floods).
 #pragma once
 
+#include "tailwise/estimatecache.h"
+
 #include <QObject>
 #include <QTimer>
 
+#include <cstdint>
 #include <memory>
 #include <stop_token>
 
@@ -41,6 +44,10 @@ private:
 
     Workbook &m_workbook;
     QTimer m_timer;
+    // Inline computations reuse the window and covariance while only quantities, confidence,
+    // horizon or the model change (core's estimatecache.h); the revision counts price histories.
+    tailwise::EstimateCache m_estimates;
+    std::uint64_t m_pricesRevision = 1;
     std::shared_ptr<std::stop_source> m_stop; // of the running background job, if any
 };
 
