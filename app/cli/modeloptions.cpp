@@ -1,4 +1,5 @@
 #include "modeloptions.h"
+#include "optiontext.h"
 
 #include <charconv>
 #include <cmath>
@@ -7,23 +8,6 @@
 namespace tailwise::cli {
 
 namespace {
-
-Error usage(const std::string &option, const std::string &what)
-{
-    return fieldError(ErrorKind::Assumption, option, what);
-}
-
-std::optional<double> toDouble(const std::string &text)
-{
-    double v = 0.0;
-    const char *begin = text.data();
-    if (!text.empty() && text[0] == '+')
-        ++begin;
-    const auto [end, ec] = std::from_chars(begin, text.data() + text.size(), v);
-    if (ec != std::errc() || end != text.data() + text.size() || !std::isfinite(v))
-        return std::nullopt;
-    return v;
-}
 
 template <class Int>
 std::optional<Int> toWhole(const std::string &text)
