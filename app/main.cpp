@@ -3,6 +3,8 @@
 //   tailwise --prices CSV [--holdings CSV]       starts from a price history and holdings files
 //   tailwise --screenshot PNG [WORKBOOK]         opens it, waits for the first figures, saves a
 //                                                picture of the whole window (≥ 1280×800), exits
+// Started for a person (not --screenshot), the window offers unsaved work that a session which
+// did not close cleanly left in a recovery file (recoveryoffer.h).
 #include "document/recomputescheduler.h"
 #include "mainwindow.h"
 #include "panels/holdingseditor.h"
@@ -87,6 +89,8 @@ int main(int argc, char *argv[])
     }
 
     window.show();
+    // Work a session that did not close cleanly left behind is offered once the window is up.
+    QTimer::singleShot(0, &window, [&window] { window.offerRecovery(); });
     if (!problems.isEmpty())
         QTimer::singleShot(0, &window, [&window, problems] {
             QMessageBox::warning(&window, QApplication::translate("main", "Could not open everything"),

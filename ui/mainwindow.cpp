@@ -3,6 +3,7 @@
 #include "actions.h"
 #include "document/commands.h"
 #include "document/recomputescheduler.h"
+#include "document/recoveryfile.h"
 #include "document/workbook.h"
 #include "document/workbookfile.h"
 #include "panels/assumptionspane.h"
@@ -60,8 +61,26 @@ MainWindow::MainWindow(QWidget *parent) : QMainWindow(parent)
             });
     connect(m_holdings, &HoldingsEditor::statusMessage, this,
             [this](const QString &text) { statusBar()->showMessage(text, kStatusTimeoutMs); });
+    // Unsaved work is kept in a recovery file of this window's own (recoveryfile.h); a failure to
+    // write it is said once on the status line.
+    m_recovery = new RecoveryFile(*m_workbook, RecoveryFile::defaultFolder(), this);
+    connect(m_recovery, &RecoveryFile::writeFailed, this,
+            [this](const QString &text) { statusBar()->showMessage(text, 3 * kStatusTimeoutMs); });
     readSettings();
     updateTitle();
+}
+
+RecoveryOutcome MainWindow::offerRecovery(const RecoveryQuestion &ask)
+{
+    const RecoveryQuestion question = ask ? ask : [this](const LeftoverRecovery &leftover, int others) {
+        return askAboutRecovery(this, leftover, others);
+    };
+    const RecoveryOutcome outcome = tailwise::ui::offerRecovery(*m_workbook, *m_recovery, question, [this] { return keepOrDiscardChanges(); });
+    if (outcome.failed && !ask)
+        showProblem(tr("Could not restore the unsaved work"), outcome.message);
+    else if (!outcome.message.isEmpty())
+        statusBar()->showMessage(outcome.message, kStatusTimeoutMs);
+    return outcome;
 }
 
 MainWindow::~MainWindow()
@@ -200,9 +219,13 @@ QString MainWindow::openWorkbookFile(const QString &path)
     auto loaded = loadWorkbook(path);
     if (!loaded)
         return QString::fromStdString(loaded.error().message);
+    const Warnings notes = loaded.value().warnings; // e.g. assumptions the file lacks took defaults
     m_workbook->resetContents(std::move(loaded).value(), QFileInfo(path).absoluteFilePath());
     addRecentFile(QFileInfo(path).absoluteFilePath());
-    statusBar()->showMessage(tr("Opened %1.").arg(QDir::toNativeSeparators(path)), kStatusTimeoutMs);
+    QString opened = tr("Opened %1.").arg(QDir::toNativeSeparators(path));
+    for (const std::string &note : notes)
+        opened += QLatin1Char(' ') + QString::fromStdString(note);
+    statusBar()->showMessage(opened, kStatusTimeoutMs);
     return {};
 }
 
@@ -388,6 +411,7 @@ void MainWindow::closeEvent(QCloseEvent *event)
     }
     writeSettings();
     m_scheduler->cancel();
+    m_recovery->discard(); // saved or discarded by the user: nothing left to recover
     event->accept();
 }
 

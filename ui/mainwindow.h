@@ -6,6 +6,8 @@
 // bottom edge, above the status line with the progress of background computations.
 #pragma once
 
+#include "panels/recoveryoffer.h"
+
 #include <QMainWindow>
 
 class QLabel;
@@ -21,6 +23,7 @@ class ChartTabs;
 class HeadlinePanel;
 class HoldingsEditor;
 class RecomputeScheduler;
+class RecoveryFile;
 class Workbook;
 
 class MainWindow : public QMainWindow {
@@ -36,6 +39,11 @@ public:
     AssumptionsPane *assumptionsPane() const { return m_assumptions; }
     HeadlinePanel *headline() const { return m_headline; }
     ChartTabs *chartTabs() const { return m_charts; }
+    RecoveryFile &recoveryFile() const { return *m_recovery; }
+
+    // Offers work left in a recovery file by a session that did not close cleanly (recoveryoffer.h);
+    // `ask` answers instead of the dialog (tests). main.cpp calls it once the window is shown.
+    RecoveryOutcome offerRecovery(const RecoveryQuestion &ask = {});
 
     // The file commands without dialogs (the menu commands ask for the path, then call these).
     // Each returns an empty string on success, or the reason nothing changed.
@@ -82,6 +90,7 @@ private:
     QSplitter *m_workSplitter = nullptr;  // charts over holdings
     QWidget *m_progress = nullptr;
     QProgressBar *m_progressBar = nullptr;
+    RecoveryFile *m_recovery = nullptr;
 };
 
 } // namespace tailwise::ui

@@ -56,6 +56,8 @@ int runVar(const std::vector<std::string> &args)
         if (!loaded)
             return fail(exitBadInput, loaded.error().message);
         workbook = std::move(loaded).value();
+        for (const auto &w : workbook->warnings) // e.g. assumptions the file lacks took defaults
+            std::fprintf(stderr, "tailwise-cli: warning: %s\n", w.c_str());
     }
     auto request = cli::parseVarOptions(args, workbook ? workbook->assumptions : Assumptions{});
     if (!request)

@@ -12,11 +12,13 @@
 #include <QJsonArray>
 #include <QJsonDocument>
 #include <QJsonObject>
+#include <QLocale>
 #include <QTemporaryDir>
 #include <QTest>
 #include <QXmlStreamReader>
 
 #include <bit>
+#include <clocale>
 #include <cmath>
 #include <cstdint>
 #include <limits>
@@ -153,6 +155,9 @@ private slots:
     void saveLoadRoundTripsEveryInput();
     void emptyWorkbookRoundTrips();
     void unknownKeysAreIgnored();
+    void olderFileOpensWithDefaults();
+    void fileFromAnotherMachineOpens();
+    void newerFormatFileIsRefusedByName();
     void refusesBadFiles_data();
     void refusesBadFiles();
     void refusesTruncatedFiles();
@@ -239,6 +244,118 @@ void TestWorkbookFile::unknownKeysAreIgnored()
     compareContents(back.value(), sampleContents());
 }
 
+// A file from before the optional fields existed (or written by hand with only the essentials):
+// it opens, every absent field takes the default of tailwise::Assumptions, and a warning lists
+// them with their values.
+void TestWorkbookFile::olderFileOpensWithDefaults()
+{
+    QJsonObject root = asObject(sampleContents());
+    root.remove(QStringLiteral("title"));
+    root.remove(QStringLiteral("backtest"));
+    root.remove(QStringLiteral("scenarios"));
+    QJsonObject a;
+    a[QStringLiteral("confidence")] = 0.975;
+    a[QStringLiteral("horizon")] = 10;
+    root[QStringLiteral("assumptions")] = a;
+    const auto back = parseWorkbookJson(toBytes(root), QStringLiteral("old.tailwise"));
+    QVERIFY2(back.ok(), back.ok() ? "" : back.error().message.c_str());
+    Assumptions want; // the documented defaults (assumptions.h)
+    want.confidence = 0.975;
+    want.horizonDays = 10;
+    WorkbookContents expected = sampleContents();
+    expected.title.clear();
+    expected.assumptions = want;
+    compareContents(back.value(), expected);
+    QVERIFY(!back.value().backtest);
+    QVERIFY(back.value().scenarios.empty());
+    QCOMPARE(back.value().warnings.size(), std::size_t(1));
+    const std::string &note = back.value().warnings.front();
+    TW_MESSAGE_HAS(note, QStringLiteral("old.tailwise: the file does not give these assumptions, so their defaults apply"));
+    for (const char *part : {"days-per-year 252", "window all", "returns simple", "estimator sample", "lambda 0.94",
+                             "mean zero", "model normal", "dof unset", "historical-horizon sqrt",
+                             "simulations 100000", "seed 1"})
+        TW_MESSAGE_HAS(note, QLatin1String(part));
+    QVERIFY(!contains(note, QStringLiteral("confidence")));
+
+    // One field absent: only it is named; a complete file has no warning.
+    QJsonObject full = asObject(sampleContents());
+    QJsonObject fa = full[QStringLiteral("assumptions")].toObject();
+    fa.remove(QStringLiteral("seed"));
+    full[QStringLiteral("assumptions")] = fa;
+    const auto one = parseWorkbookJson(toBytes(full), QStringLiteral("one.tailwise"));
+    QVERIFY(one.ok());
+    QCOMPARE(one.value().assumptions.seed, std::uint64_t(1));
+    QCOMPARE(one.value().assumptions.lambda, sampleContents().assumptions.lambda);
+    QCOMPARE(one.value().warnings.size(), std::size_t(1));
+    TW_MESSAGE_HAS(one.value().warnings.front(), QStringLiteral("defaults apply: seed 1"));
+    QVERIFY(parseWorkbookJson(toBytes(asObject(sampleContents())), QStringLiteral("x")).value().warnings.empty());
+}
+
+// A workbook made where the decimal separator is a comma, opened where it is a point (and the
+// other way round): numbers in the file are JSON numbers, always with a '.', whatever the locale
+// of the machine that wrote or reads it; the file holds no paths of that machine.
+void TestWorkbookFile::fileFromAnotherMachineOpens()
+{
+    const QLocale previous;
+    const std::string previousC = std::setlocale(LC_NUMERIC, nullptr);
+    QLocale::setDefault(QLocale(QLocale::German, QLocale::Germany));
+    // The C library's own locale too, where this machine has a comma locale installed.
+    bool cLocaleComma = false;
+    for (const char *name : {"de_DE.UTF-8", "de_DE.utf8", "fr_FR.UTF-8", "fr_FR.utf8"})
+        if (std::setlocale(LC_NUMERIC, name)) {
+            cLocaleComma = true;
+            break;
+        }
+    const QString dir = QStringLiteral(TAILWISE_SOURCE_DIR "/samples/");
+    const auto sample = loadWorkbook(dir + QStringLiteral("larchmere.tailwise"));
+    const QByteArray handWritten = R"({"kind": "tailwise-workbook", "format": 1,
+        "prices": {"assets": ["A"], "dates": ["2024-01-02", "2024-01-03", "2024-01-04"],
+                   "rows": [[1234.5], [1250.25], [1.5e3]]},
+        "holdings": [{"asset": "A", "quantity": 0.5}],
+        "assumptions": {"confidence": 0.975, "horizon": 10, "lambda": 0.97}})";
+    const auto hand = parseWorkbookJson(handWritten, QStringLiteral("from-elsewhere.tailwise"));
+    WorkbookContents local = sampleContents();
+    local.assumptions.confidence = 0.975;
+    const auto written = workbookJson(local);
+    QLocale::setDefault(previous);
+    std::setlocale(LC_NUMERIC, previousC.c_str());
+
+    QVERIFY2(sample.ok(), sample.ok() ? "" : sample.error().message.c_str());
+    QCOMPARE(sample.value().assumptions.confidence, 0.99);
+    QVERIFY2(hand.ok(), hand.ok() ? "" : hand.error().message.c_str());
+    QCOMPARE(hand.value().prices.prices(0, 0), 1234.5);
+    QCOMPARE(hand.value().prices.prices(1, 0), 1250.25);
+    QCOMPARE(hand.value().prices.prices(2, 0), 1500.0);
+    QCOMPARE(hand.value().holdings[0].quantity, 0.5);
+    QCOMPARE(hand.value().assumptions.confidence, 0.975);
+    QCOMPARE(hand.value().assumptions.lambda, 0.97);
+    // Written under that locale, the numbers still carry a point and read back exactly here.
+    QVERIFY(written.ok());
+    QVERIFY(written.value().contains("\"confidence\": 0.975"));
+    const auto back = parseWorkbookJson(written.value(), QStringLiteral("written-elsewhere.tailwise"));
+    QVERIFY(back.ok());
+    compareContents(back.value(), local);
+    if (!cLocaleComma)
+        qInfo("no comma-decimal C locale installed here: checked with Qt's German locale only");
+}
+
+void TestWorkbookFile::newerFormatFileIsRefusedByName()
+{
+    QTemporaryDir dir;
+    QJsonObject root = asObject(sampleContents());
+    root[QStringLiteral("format")] = 2;
+    root[QStringLiteral("something-new")] = QStringLiteral("a field this version does not know");
+    const QString path = dir.filePath(QStringLiteral("future.tailwise"));
+    {
+        QFile f(path);
+        QVERIFY(f.open(QIODevice::WriteOnly));
+        f.write(toBytes(root));
+    }
+    const auto r = loadWorkbook(path);
+    QVERIFY(!r.ok());
+    QCOMPARE(r.error().message, path.toStdString() + ": made by a newer Tailwise (format 2); this version reads format 1");
+}
+
 // Each case edits one thing in a valid workbook; the message must name the file and the place.
 void TestWorkbookFile::refusesBadFiles_data()
 {
@@ -296,8 +413,14 @@ void TestWorkbookFile::refusesBadFiles_data()
                                     << QStringList{"format: expected a format version"};
     QTest::newRow("format not whole") << edit([](QJsonObject &o) { o["format"] = 1.5; }) << V
                                       << QStringList{"format: expected a format version", "1.5"};
-    QTest::newRow("title missing") << edit([](QJsonObject &o) { o.remove("title"); }) << F
-                                   << QStringList{"title: missing"};
+    QTest::newRow("newer format, far ahead") << edit([](QJsonObject &o) { o["format"] = 17; }) << F
+                                             << QStringList{"made by a newer Tailwise (format 17)", "reads format 1"};
+    QTest::newRow("prices missing") << edit([](QJsonObject &o) { o.remove("prices"); }) << F
+                                    << QStringList{"prices: missing"};
+    QTest::newRow("holdings missing") << edit([](QJsonObject &o) { o.remove("holdings"); }) << F
+                                      << QStringList{"holdings: missing"};
+    QTest::newRow("assumptions missing") << edit([](QJsonObject &o) { o.remove("assumptions"); }) << F
+                                         << QStringList{"assumptions: missing"};
     QTest::newRow("quantity is text") << edit([&](QJsonObject &o) { holding(o, 3, "quantity", "ten"); }) << F
                                       << QStringList{"holdings[3].quantity: expected a number, found a string (\"ten\")"};
     QTest::newRow("quantity is null") << edit([&](QJsonObject &o) { holding(o, 0, "quantity", QJsonValue::Null); }) << F
@@ -375,9 +498,16 @@ void TestWorkbookFile::refusesBadFiles_data()
     QTest::newRow("unknown model")
         << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a["model"] = "crystal-ball"; }); })
         << V << QStringList{"assumptions.model: expected \"normal\"", "found \"crystal-ball\""};
-    QTest::newRow("lambda missing")
-        << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a.remove("lambda"); }); }) << F
-        << QStringList{"assumptions.lambda: missing"};
+    // What a figure is (its confidence and horizon) is never guessed.
+    QTest::newRow("confidence missing")
+        << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a.remove("confidence"); }); }) << F
+        << QStringList{"assumptions.confidence: missing"};
+    QTest::newRow("horizon missing")
+        << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a.remove("horizon"); }); }) << F
+        << QStringList{"assumptions.horizon: missing"};
+    QTest::newRow("lambda present but wrong")
+        << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a["lambda"] = "high"; }); }) << F
+        << QStringList{"assumptions.lambda: expected a number, found a string"};
     QTest::newRow("window neither number nor all")
         << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a["window"] = "most"; }); }) << F
         << QStringList{"assumptions.window: expected a whole number of days or \"all\""};

@@ -34,13 +34,24 @@ void Workbook::markSaved(const QString &path)
 
 void Workbook::resetContents(WorkbookContents contents, const QString &fromFile)
 {
+    replaceContents(std::move(contents), fromFile, false);
+}
+
+void Workbook::restoreUnsaved(WorkbookContents contents, const QString &belongsTo)
+{
+    replaceContents(std::move(contents), belongsTo, true);
+}
+
+void Workbook::replaceContents(WorkbookContents contents, const QString &path, bool unsaved)
+{
     emit holdingsAboutToBeReset();
     m_contents = std::move(contents);
+    m_contents.warnings.clear(); // shown once, when the file was opened
+    m_unsavedWithoutUndo = unsaved; // before clear(), whose cleanChanged reports isModified()
     m_undo->clear();
-    m_unsavedWithoutUndo = false;
     m_report.reset();
     m_error.reset();
-    setFilePath(fromFile);
+    setFilePath(path);
     emit holdingsReset();
     emit pricesChanged();
     emit assumptionsChanged();

@@ -61,6 +61,9 @@ public:
     // Replaces everything (open, new). Clears the undo stack. `fromFile` is empty for a new
     // document.
     void resetContents(WorkbookContents contents, const QString &fromFile);
+    // Replaces everything with work that was never saved (a recovery file, recoveryfile.h): the
+    // workbook is modified, and titled as `belongsTo` (empty: untitled) so that Save writes there.
+    void restoreUnsaved(WorkbookContents contents, const QString &belongsTo);
 
     // --- Mutators for undo commands (commands.cpp) only. ---
     void applyHolding(int row, const tailwise::Holding &holding);
@@ -103,11 +106,12 @@ signals:
 
 private:
     void inputsTouched();
+    void replaceContents(WorkbookContents contents, const QString &path, bool unsaved);
 
     WorkbookContents m_contents;
     QUndoStack *m_undo = nullptr;
     QString m_filePath;
-    bool m_unsavedWithoutUndo = false; // contents that came from no file (e.g. "New" with data)
+    bool m_unsavedWithoutUndo = false; // contents that came from no file (restored unsaved work)
     std::optional<tailwise::RiskReport> m_report;
     std::optional<tailwise::Error> m_error;
     bool m_computing = false;

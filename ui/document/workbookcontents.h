@@ -6,6 +6,7 @@
 #include "tailwise/assumptions.h"
 #include "tailwise/holdings.h"
 #include "tailwise/prices.h"
+#include "tailwise/result.h"
 #include "tailwise/stress.h"
 
 #include <QString>
@@ -34,6 +35,9 @@ struct WorkbookContents {
     std::optional<BacktestSettings> backtest; // unset: the window's defaults (BacktestSettings{})
     // Named per-asset price shocks (stress.h), in the order shown; every asset is in `prices`.
     std::vector<tailwise::StressScenario> scenarios;
+    // What reading the file noted (e.g. absent assumptions that took their defaults): shown when
+    // the file is opened, never written back.
+    tailwise::Warnings warnings;
 };
 
 } // namespace tailwise::ui

@@ -281,24 +281,60 @@ QJsonObject assumptionsJson(const Assumptions &a)
     return o;
 }
 
-void readAssumptions(const QJsonObject &o, Context &c, Assumptions &a)
+// Required: confidence and horizon, which say what a figure is ("99 % over 10 days"); a file
+// without them would show a different figure without saying so. Every other field takes its
+// default from tailwise::Assumptions when absent (a file written before the field existed, or by
+// hand), and the defaults used travel as a warning. A present field is checked as ever.
+void readAssumptions(const QJsonObject &o, Context &c, Assumptions &a, Warnings &warnings)
 {
     const std::string path = "assumptions";
     ObjectReader r(o, path, c);
+    std::vector<std::string> defaulted;
+    auto present = [&](const char *key) {
+        if (r.has(key))
+            return true;
+        defaulted.push_back(key);
+        return false;
+    };
     r.number("confidence", a.confidence);
     r.whole("horizon", a.horizonDays);
-    r.whole("days-per-year", a.daysPerYear);
-    r.wholeOrAll("window", a.window);
-    r.choice("returns", a.returns, parseReturnType, "\"simple\" or \"log\"");
-    r.choice("estimator", a.estimator, parseEstimator, "\"sample\" or \"ewma\"");
-    r.number("lambda", a.lambda);
-    r.choice("mean", a.mean, parseMeanModel, "\"zero\" or \"sample\"");
-    r.choice("model", a.model, parseRiskModel,
-             "\"normal\", \"student-t\", \"cornish-fisher\", \"historical\" or \"monte-carlo\"");
-    r.degreesOfFreedom("dof", a.dof);
-    r.choice("historical-horizon", a.historicalHorizon, parseHistoricalHorizon, "\"sqrt\" or \"overlapping\"");
-    r.whole("simulations", a.simulations);
-    r.unsigned64("seed", a.seed);
+    if (present("days-per-year"))
+        r.whole("days-per-year", a.daysPerYear);
+    if (present("window"))
+        r.wholeOrAll("window", a.window);
+    if (present("returns"))
+        r.choice("returns", a.returns, parseReturnType, "\"simple\" or \"log\"");
+    if (present("estimator"))
+        r.choice("estimator", a.estimator, parseEstimator, "\"sample\" or \"ewma\"");
+    if (present("lambda"))
+        r.number("lambda", a.lambda);
+    if (present("mean"))
+        r.choice("mean", a.mean, parseMeanModel, "\"zero\" or \"sample\"");
+    if (present("model"))
+        r.choice("model", a.model, parseRiskModel,
+                 "\"normal\", \"student-t\", \"cornish-fisher\", \"historical\" or \"monte-carlo\"");
+    if (present("dof"))
+        r.degreesOfFreedom("dof", a.dof);
+    if (present("historical-horizon"))
+        r.choice("historical-horizon", a.historicalHorizon, parseHistoricalHorizon, "\"sqrt\" or \"overlapping\"");
+    if (present("simulations"))
+        r.whole("simulations", a.simulations);
+    if (present("seed"))
+        r.unsigned64("seed", a.seed);
+    if (c.ok() && !defaulted.empty()) {
+        // Name each default with its value, from the writer itself, so the two cannot disagree.
+        const QJsonObject defaults = assumptionsJson(Assumptions{});
+        std::string list;
+        for (const std::string &key : defaulted) {
+            const QJsonValue v = defaults.value(QString::fromStdString(key));
+            const double d = v.toDouble();
+            const std::string value = v.isString()                            ? text(v.toString())
+                : std::floor(d) == d && std::abs(d) < largestExactWhole ? std::to_string(static_cast<long long>(d))
+                                                                        : shortest(d);
+            list += (list.empty() ? "" : ", ") + key + " " + value;
+        }
+        warnings.push_back(c.source + ": the file does not give these assumptions, so their defaults apply: " + list);
+    }
     if (!c.ok())
         return;
     // The same domain checks as every other way in (CLI options, the window's fields).
@@ -603,9 +639,9 @@ void readScenarios(const QJsonArray &list, const PriceHistory &prices, Context &
 
 // --- The whole file ---
 
-QJsonObject contentsJson(const WorkbookContents &contents)
+QJsonObject contentsJson(const WorkbookContents &contents, const QJsonObject &extraKeys = {})
 {
-    QJsonObject root;
+    QJsonObject root = extraKeys; // the format's own keys below replace any of the same name
     root["kind"] = QLatin1String(workbookKind);
     root["format"] = workbookFormatVersion;
     root["title"] = contents.title;
@@ -640,7 +676,8 @@ Result<WorkbookContents> contentsFromJson(const QJsonObject &root, const std::st
 
     WorkbookContents contents;
     ObjectReader r(root, "", c);
-    r.string("title", contents.title);
+    if (r.has("title"))
+        r.string("title", contents.title);
     const QJsonObject prices = r.object("prices");
     if (c.ok())
         readPrices(prices, c, contents.prices);
@@ -649,7 +686,7 @@ Result<WorkbookContents> contentsFromJson(const QJsonObject &root, const std::st
         readHoldings(holdings, contents.prices, c, contents.holdings);
     const QJsonObject assumptions = r.object("assumptions");
     if (c.ok())
-        readAssumptions(assumptions, c, contents.assumptions);
+        readAssumptions(assumptions, c, contents.assumptions, contents.warnings);
     if (c.ok() && r.has("backtest")) {
         const QJsonObject backtest = r.object("backtest");
         BacktestSettings settings;
@@ -743,9 +780,9 @@ Result<WorkbookContents> loadWorkbook(const QString &path)
     return parseWorkbookJson(bytes, path);
 }
 
-Result<QByteArray> workbookJson(const WorkbookContents &contents)
+Result<QByteArray> workbookJson(const WorkbookContents &contents, const QJsonObject &extraKeys)
 {
-    const QJsonObject root = contentsJson(contents);
+    const QJsonObject root = contentsJson(contents, extraKeys);
     // Store only what reads back: the reader's rules are the one definition of a valid workbook.
     // (A non-finite number would otherwise become a JSON null.)
     if (auto check = contentsFromJson(root, "workbook"); !check)
@@ -753,9 +790,9 @@ Result<QByteArray> workbookJson(const WorkbookContents &contents)
     return QJsonDocument(root).toJson(QJsonDocument::Indented);
 }
 
-Status saveWorkbook(const WorkbookContents &contents, const QString &path)
+Status saveWorkbook(const WorkbookContents &contents, const QString &path, const QJsonObject &extraKeys)
 {
-    const auto json = workbookJson(contents);
+    const auto json = workbookJson(contents, extraKeys);
     if (!json) {
         Error e = json.error();
         const std::string what = e.message.rfind("workbook: ", 0) == 0 ? e.message.substr(10) : e.message;

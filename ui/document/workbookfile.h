@@ -4,7 +4,7 @@
 //   {
 //     "kind": "tailwise-workbook",      what the file is: anything else is "not a workbook"
 //     "format": 1,                      the layout version; a larger one is refused (newer program)
-//     "title": "…",                     may be empty
+//     "title": "…",                     optional (empty when absent)
 //     "prices": {                       the embedded daily price history
 //       "assets": ["A", "B", …],        non-empty, unique names
 //       "dates":  ["2024-01-02", …],    ISO dates, strictly increasing
@@ -17,8 +17,12 @@
 //                                       `value` is given; price: optional override of the last
 //                                       close (> 0); value: optional money exposure, which
 //                                       replaces quantity × price when present
-//     "assumptions": {                  every field of tailwise::Assumptions, named as the
-//       "confidence": 0.99,             fields of validate() name them; all required:
+//     "assumptions": {                  the fields of tailwise::Assumptions, named as the fields
+//       "confidence": 0.99,             of validate() name them. confidence and horizon are
+//                                       required (they say what the figure is); any other field
+//                                       that is absent takes its default from Assumptions (a file
+//                                       from before the field existed, or written by hand), and
+//                                       the defaults used are listed in the contents' warnings:
 //       "horizon": 10, "days-per-year": 252, "window": 500 | "all",
 //       "returns": "simple" | "log", "estimator": "sample" | "ewma", "lambda": 0.94,
 //       "mean": "zero" | "sample", "model": "normal" | "student-t" | …,
@@ -37,6 +41,14 @@
 //       "models": ["normal", …]         ≥ 2 returns, 0 < test-size < 1, models a non-empty list of
 //     }                                 distinct models the backtest runs, the first one drawn
 //   }
+// Rules for changing the layout (so that files travel between versions and machines):
+//   - a new field is optional on load, with a stated default, and `format` stays the same: an
+//     older program ignores it, an older file reads with the default;
+//   - `format` goes up only when an older program would misread a file (a field changes meaning
+//     or becomes required); a program refuses a file whose format is newer than its own, naming
+//     both versions, and keeps reading every older format;
+//   - numbers are JSON numbers (a '.' decimal point whatever the user's locale), dates ISO, text
+//     UTF-8; the file holds no paths, so it opens unchanged on another machine.
 // Numbers are written in the shortest form that reads back to the same double, so a save →
 // load round trip is exact. A file is checked with the same rules as the CSV readers and the
 // assumption checks (checkHoldings, validate), and a refusal names the file and the place in it
@@ -56,6 +68,7 @@
 #include "tailwise/result.h"
 
 #include <QByteArray>
+#include <QJsonObject>
 #include <QString>
 
 namespace tailwise::ui {
@@ -72,8 +85,11 @@ tailwise::Result<WorkbookContents> parseWorkbookJson(const QByteArray &json, con
 tailwise::Result<WorkbookContents> loadWorkbook(const QString &path);
 
 // The JSON text of a workbook, or the reason the contents cannot be stored (see above).
-tailwise::Result<QByteArray> workbookJson(const WorkbookContents &contents);
+// `extraKeys` are added at the top level, where readers ignore them (the recovery file's note of
+// where it belongs, recoveryfile.h); the format's own keys always win over one of the same name.
+tailwise::Result<QByteArray> workbookJson(const WorkbookContents &contents, const QJsonObject &extraKeys = {});
 // Writes atomically; on failure the message names the path and the previous file is intact.
-tailwise::Status saveWorkbook(const WorkbookContents &contents, const QString &path);
+tailwise::Status saveWorkbook(const WorkbookContents &contents, const QString &path,
+                              const QJsonObject &extraKeys = {});
 
 } // namespace tailwise::ui
