@@ -75,7 +75,8 @@ RecoveryOutcome MainWindow::offerRecovery(const RecoveryQuestion &ask)
     const RecoveryQuestion question = ask ? ask : [this](const LeftoverRecovery &leftover, int others) {
         return askAboutRecovery(this, leftover, others);
     };
-    const RecoveryOutcome outcome = tailwise::ui::offerRecovery(*m_workbook, *m_recovery, question, [this] { return keepOrDiscardChanges(); });
+    const RecoveryOutcome outcome = tailwise::ui::offerRecovery(*m_workbook, *m_recovery, question,
+                                                                [this] { return keepOrDiscardChanges(); });
     if (outcome.failed && !ask)
         showProblem(tr("Could not restore the unsaved work"), outcome.message);
     else if (!outcome.message.isEmpty())

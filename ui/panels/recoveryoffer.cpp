@@ -35,7 +35,14 @@ RecoveryChoice askAboutRecovery(QWidget *parent, const LeftoverRecovery &leftove
                     .arg(workbookName(leftover).toHtmlEscaped(), when.toHtmlEscaped()));
     QString details;
     if (leftover.contents()) {
-        details = leftover.workbookPath().isEmpty()
+        // What the copy holds, so that the user can tell one piece of work from another.
+        const WorkbookContents &kept = leftover.contents().value();
+        const int holdings = static_cast<int>(kept.holdings.size());
+        const QString count = holdings == 1 ? tr("1 holding") : tr("%1 holdings").arg(QLocale().toString(holdings));
+        details = kept.title.isEmpty() ? tr("The kept copy has %1.").arg(count)
+                                       : tr("The kept copy, “%1”, has %2.").arg(kept.title, count);
+        details += QLatin1Char(' ');
+        details += leftover.workbookPath().isEmpty()
             ? tr("Restore opens them as a new, unsaved workbook.")
             : tr("Restore opens them as unsaved changes; Save writes them to %1.")
                   .arg(QDir::toNativeSeparators(leftover.workbookPath()));
@@ -44,9 +51,7 @@ RecoveryChoice askAboutRecovery(QWidget *parent, const LeftoverRecovery &leftove
         details = tr("The kept copy cannot be read: %1").arg(QString::fromStdString(leftover.contents().error().message));
     }
     if (othersWaiting > 0)
-        details += QLatin1Char(' ')
-            + QCoreApplication::translate("RecoveryOffer", "Other kept copies waiting for a later start: %n.", nullptr,
-                                          othersWaiting);
+        details += QLatin1Char(' ') + tr("Other kept copies waiting for a later start: %1.").arg(othersWaiting);
     box.setInformativeText(details);
     QPushButton *restore = box.addButton(tr("Restore"), QMessageBox::AcceptRole);
     QPushButton *discard = box.addButton(tr("Discard"), QMessageBox::DestructiveRole);
