@@ -14,17 +14,22 @@
 #include "mainwindow.h"
 #include "windowfixture.h"
 
+#include <QAbstractButton>
+#include <QApplication>
 #include <QDir>
 #include <QFile>
 #include <QJsonDocument>
 #include <QJsonObject>
+#include <QLocale>
 #include <QLockFile>
+#include <QMessageBox>
 #include <QProcess>
 #include <QSignalSpy>
 #include <QStandardPaths>
 #include <QStatusBar>
 #include <QTemporaryDir>
 #include <QTest>
+#include <QTimer>
 #include <QUndoStack>
 
 using namespace tailwise;
@@ -316,6 +321,70 @@ private slots:
         QCOMPARE(w->workbook().filePath(), QString());
         QCOMPARE(w->workbook().title(), QStringLiteral("Never saved"));
         QVERIFY(w->windowTitle().startsWith(QStringLiteral("Untitled")));
+    }
+
+    // The dialog itself: it names the workbook, the time and what the copy holds, and each
+    // button gives its answer. Answered here by a timer that finds the dialog and clicks.
+    void dialogSaysWhatWasKeptAndWhen()
+    {
+        const QString original = QDir(QDir::tempPath()).filePath(QStringLiteral("dialog-fund.tailwise"));
+        QString leftoverPath;
+        {
+            Workbook wb;
+            wb.resetContents(sampleContents(), original);
+            RecoveryFile recovery(wb, RecoveryFile::defaultFolder());
+            edit::setTitle(wb, QStringLiteral("Larchmere, edited"));
+            QVERIFY(recovery.writeNow());
+            leftoverPath = recovery.path();
+        }
+        leaveStaleLock(leftoverPath);
+        const auto leftover = LeftoverRecovery::claimNewest(RecoveryFile::defaultFolder());
+        QVERIFY(leftover);
+        QCOMPARE(leftover->path(), leftoverPath);
+
+        auto answerWith = [](const QString &button, QString *text, bool *restoreEnabled) {
+            QTimer::singleShot(0, [=] {
+                auto *box = qobject_cast<QMessageBox *>(QApplication::activeModalWidget());
+                if (!box)
+                    return;
+                *text = box->text() + QLatin1Char('\n') + box->informativeText();
+                for (QAbstractButton *b : box->buttons()) {
+                    if (b->text() == QStringLiteral("Restore"))
+                        *restoreEnabled = b->isEnabled();
+                }
+                for (QAbstractButton *b : box->buttons())
+                    if (b->text() == button)
+                        b->click();
+            });
+        };
+        QString text;
+        bool restoreEnabled = false;
+        answerWith(QStringLiteral("Decide Later"), &text, &restoreEnabled);
+        QCOMPARE(askAboutRecovery(nullptr, *leftover, 2), RecoveryChoice::Later);
+        const QString when = QLocale().toString(leftover->savedAt().toLocalTime(), QLocale::LongFormat);
+        for (const QString &part : {QStringLiteral("did not close normally"), QStringLiteral("dialog-fund.tailwise"), when,
+                                    QStringLiteral("“Larchmere, edited”, has 13 holdings"),
+                                    QStringLiteral("Save writes them to ") + QDir::toNativeSeparators(original),
+                                    QStringLiteral("Other kept copies waiting for a later start: 2")})
+            QVERIFY2(text.contains(part), qPrintable(QStringLiteral("\"%1\" not in: %2").arg(part, text)));
+        QVERIFY(restoreEnabled);
+        answerWith(QStringLiteral("Restore"), &text, &restoreEnabled);
+        QCOMPARE(askAboutRecovery(nullptr, *leftover, 0), RecoveryChoice::Restore);
+        answerWith(QStringLiteral("Discard"), &text, &restoreEnabled);
+        QCOMPARE(askAboutRecovery(nullptr, *leftover, 0), RecoveryChoice::Discard);
+        QVERIFY(QFile::exists(leftoverPath)); // the dialog only asks; acting is offerRecovery's
+
+        // The original saved after the copy was kept: the dialog says so.
+        {
+            QFile f(original);
+            QVERIFY(f.open(QIODevice::WriteOnly));
+            f.write("{}");
+            QVERIFY(f.setFileTime(leftover->savedAt().addSecs(30), QFileDevice::FileModificationTime));
+        }
+        answerWith(QStringLiteral("Decide Later"), &text, &restoreEnabled);
+        askAboutRecovery(nullptr, *leftover, 0);
+        QVERIFY2(text.contains(QStringLiteral("was saved after this copy was kept")), qPrintable(text));
+        QFile::remove(original);
     }
 
     void liveSessionIsNotOffered()

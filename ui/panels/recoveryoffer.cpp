@@ -23,6 +23,23 @@ QString workbookName(const LeftoverRecovery &leftover)
                                              : QFileInfo(leftover.workbookPath()).fileName();
 }
 
+// What the user should know about the original file before choosing: it may have been saved
+// since (from another window, after this copy was kept), or its folder may not be on this machine.
+QString whereItGoes(const LeftoverRecovery &leftover)
+{
+    const QString path = leftover.workbookPath();
+    if (path.isEmpty())
+        return {};
+    const QFileInfo file(path);
+    if (!file.absoluteDir().exists())
+        return QLatin1Char(' ') + tr("Its folder is not there now: use Save As to choose another place.");
+    if (file.exists() && file.lastModified().toUTC() > leftover.savedAt())
+        return QLatin1Char(' ')
+            + tr("Note: %1 was saved after this copy was kept (at %2); restoring brings back the older work.")
+                  .arg(file.fileName(), QLocale().toString(file.lastModified(), QLocale::ShortFormat));
+    return {};
+}
+
 } // namespace
 
 RecoveryChoice askAboutRecovery(QWidget *parent, const LeftoverRecovery &leftover, int othersWaiting)
@@ -31,8 +48,9 @@ RecoveryChoice askAboutRecovery(QWidget *parent, const LeftoverRecovery &leftove
     box.setIcon(QMessageBox::Question);
     box.setWindowTitle(tr("Recover Unsaved Work"));
     const QString when = QLocale().toString(leftover.savedAt().toLocalTime(), QLocale::LongFormat);
+    box.setTextFormat(Qt::PlainText); // file names and titles are shown as they are
     box.setText(tr("Tailwise did not close normally. Unsaved changes to %1 were kept at %2.")
-                    .arg(workbookName(leftover).toHtmlEscaped(), when.toHtmlEscaped()));
+                    .arg(workbookName(leftover), when));
     QString details;
     if (leftover.contents()) {
         // What the copy holds, so that the user can tell one piece of work from another.
@@ -46,6 +64,7 @@ RecoveryChoice askAboutRecovery(QWidget *parent, const LeftoverRecovery &leftove
             ? tr("Restore opens them as a new, unsaved workbook.")
             : tr("Restore opens them as unsaved changes; Save writes them to %1.")
                   .arg(QDir::toNativeSeparators(leftover.workbookPath()));
+        details += whereItGoes(leftover);
         details += QLatin1Char(' ') + tr("Discard deletes the kept copy. Decide Later keeps it and asks again at the next start.");
     } else {
         details = tr("The kept copy cannot be read: %1").arg(QString::fromStdString(leftover.contents().error().message));
