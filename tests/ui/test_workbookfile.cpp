@@ -164,6 +164,7 @@ private slots:
     void refusesMissingAndFolderPaths();
     void failedSaveKeepsThePreviousFile();
     void saveIntoReadOnlyFolderFails();
+    void saveWhereNoOneMayWriteFails();
     void sampleWorkbookMatchesItsCsvs();
     void desktopFilesNameTheWorkbookType();
 };
@@ -631,6 +632,20 @@ void TestWorkbookFile::saveIntoReadOnlyFolderFails()
     QVERIFY(!s.ok());
     TW_MESSAGE_HAS(s.error().message, path + QStringLiteral(": not saved"));
     QCOMPARE(readAll(path), before);
+}
+
+void TestWorkbookFile::saveWhereNoOneMayWriteFails()
+{
+    // The read-only folder above is skipped as root (root writes there anyway); inside /proc no
+    // file can be made, whoever asks, so this failure is reached on every Linux machine.
+    if (!QDir(QStringLiteral("/proc/self")).exists())
+        QSKIP("needs Linux's /proc");
+    const QString path = QStringLiteral("/proc/self/workbook.tailwise");
+    const auto s = saveWorkbook(sampleContents(), path);
+    QVERIFY(!s.ok());
+    TW_MESSAGE_HAS(s.error().message, path + QStringLiteral(": not saved: the file cannot be written"));
+    TW_MESSAGE_HAS(s.error().message, QStringLiteral("(an existing file there is unchanged)"));
+    QVERIFY(!QFile::exists(path));
 }
 
 void TestWorkbookFile::sampleWorkbookMatchesItsCsvs()
