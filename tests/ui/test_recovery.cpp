@@ -96,8 +96,12 @@ private slots:
     void initTestCase()
     {
         isolateSettings();
-        // The window's recovery folder (AppLocalDataLocation) goes to a test location.
+        // The window's recovery folder (AppLocalDataLocation) goes to a test location, under a
+        // home of this run's own, so that runs side by side on one machine never share it.
+        QVERIFY(m_home.isValid());
+        qputenv("HOME", QFile::encodeName(m_home.path()));
         QStandardPaths::setTestModeEnabled(true);
+        QVERIFY(RecoveryFile::defaultFolder().startsWith(m_home.path()));
     }
     void init() { QDir(RecoveryFile::defaultFolder()).removeRecursively(); }
     void cleanupTestCase() { QDir(RecoveryFile::defaultFolder()).removeRecursively(); }
@@ -491,6 +495,9 @@ private slots:
             QCOMPARE(textOf(wb.contents()), before);
         }
     }
+
+private:
+    QTemporaryDir m_home;
 };
 
 QTEST_MAIN(TestRecovery)
