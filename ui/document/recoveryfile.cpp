@@ -33,7 +33,14 @@ RecoveryFile::RecoveryFile(Workbook &workbook, QString folder, QObject *parent)
     m_timer->setInterval(defaultIntervalMs);
     connect(m_timer, &QTimer::timeout, this, [this] { writeNow(); });
     // Every edit moves the undo stack; opening, New and restoring reset the contents.
-    connect(m_workbook.undoStack(), &QUndoStack::indexChanged, this, &RecoveryFile::changed);
+    const auto edits = connect(m_workbook.undoStack(), &QUndoStack::indexChanged, this, &RecoveryFile::changed);
+    // The workbook may go first (both are children of the window, the workbook made first): its
+    // undo stack, deleted after it, must not call back into a workbook that is no more.
+    connect(&m_workbook, &QObject::destroyed, this, [this, edits] {
+        disconnect(edits);
+        m_timer->stop();
+        m_workbookGone = true;
+    });
     connect(&m_workbook, &Workbook::contentsReset, this, &RecoveryFile::changed);
     connect(&m_workbook, &Workbook::modifiedChanged, this, &RecoveryFile::modifiedChanged);
 }
@@ -46,7 +53,7 @@ void RecoveryFile::setIntervalMs(int ms) { m_timer->setInterval(ms); }
 
 void RecoveryFile::changed()
 {
-    if (!m_workbook.isModified())
+    if (m_workbookGone || !m_workbook.isModified())
         return;
     m_pending = true;
     if (!m_timer->isActive())
@@ -79,7 +86,7 @@ bool RecoveryFile::takeLock()
 bool RecoveryFile::writeNow()
 {
     m_timer->stop();
-    if (!m_workbook.isModified())
+    if (m_workbookGone || !m_workbook.isModified())
         return true;
     QString problem;
     if (!takeLock()) {

@@ -82,6 +82,7 @@ private:
     bool m_written = false;   // the file exists (this session wrote it)
     bool m_pending = false;   // changes since the last write
     bool m_failing = false;   // the last write failed (and was reported)
+    bool m_workbookGone = false;
 };
 
 } // namespace tailwise::ui
