@@ -57,6 +57,7 @@ private slots:
     void optionsOverrideTheStoredAssumptions();
     void packStoresEveryOptionGiven();
     void packStoresTheModelOptions();
+    void olderWorkbookRunsWithTheDefaults();
     void refusesBadWorkbooks();
     void packRefusals();
 };
@@ -191,6 +192,38 @@ void TestCliWorkbook::packStoresTheModelOptions()
     const Run csv8 = cli(QStringList{"var"} + csvInputs()
                          + QStringList{"--model", "monte-carlo", "--simulations", "20000", "--seed", "8", "--json"});
     QCOMPARE(reseeded.out, csv8.out);
+}
+
+// A workbook from before the optional assumptions existed: the sample without them gives the
+// sample's own figures (its values of those fields are the defaults), and stderr says which
+// defaults were used (ui/document/workbookfile.h).
+void TestCliWorkbook::olderWorkbookRunsWithTheDefaults()
+{
+    QTemporaryDir dir;
+    QFile good(sample("larchmere.tailwise"));
+    QVERIFY(good.open(QIODevice::ReadOnly));
+    QJsonObject root = QJsonDocument::fromJson(good.readAll()).object();
+    QJsonObject kept;
+    const QJsonObject a = root[QStringLiteral("assumptions")].toObject();
+    for (const char *key : {"confidence", "horizon", "window", "estimator"})
+        kept[QLatin1String(key)] = a[QLatin1String(key)];
+    root[QStringLiteral("assumptions")] = kept;
+    const QString path = dir.filePath(QStringLiteral("older.tailwise"));
+    QFile out(path);
+    QVERIFY(out.open(QIODevice::WriteOnly));
+    out.write(QJsonDocument(root).toJson());
+    out.close();
+
+    const Run full = cli({"var", "--workbook", sample("larchmere.tailwise"), "--json"});
+    TW_RUN_OK(full);
+    QVERIFY2(!full.err.contains("defaults apply"), full.err.constData());
+    const Run older = cli({"var", "--workbook", path, "--json"});
+    TW_RUN_OK(older);
+    QCOMPARE(older.out, full.out);
+    QVERIFY2(older.err.contains("tailwise-cli: warning: " + path.toUtf8()
+                                + ": the file does not give these assumptions, so their defaults apply: days-per-year 252"),
+             older.err.constData());
+    QVERIFY2(older.err.contains("lambda 0.94") && older.err.contains("seed 1"), older.err.constData());
 }
 
 void TestCliWorkbook::refusesBadWorkbooks()
