@@ -128,6 +128,17 @@ void applyPrintStyle(QCustomPlot *plot, const QSizeF &pane, const PrintFonts &fo
             bottom->ticker()->setTickCount(std::clamp(static_cast<int>(pane.width() * share / (1.1 * labelWidth)), 2, 6));
         }
     }
+    // A label along a vertical axis longer than the pane is high loses its ends; smaller, it fits.
+    const double room = pane.height() * (plot->axisRects().size() > 1 ? 0.5 : 0.7);
+    for (QCPAxisRect *rect : plot->axisRects())
+        for (QCPAxis *axis : {rect->axis(QCPAxis::atLeft), rect->axis(QCPAxis::atRight)}) {
+            if (!axis || axis->label().isEmpty())
+                continue;
+            QFont f = axis->labelFont();
+            while (f.pixelSize() > 7 && QFontMetricsF(f).horizontalAdvance(axis->label()) > room)
+                f.setPixelSize(f.pixelSize() - 1);
+            axis->setLabelFont(f);
+        }
     // (QCPLegend::setFont passes the font on to the items it holds.)
     plot->legend->setFont(fonts.scaled(plot->legend->font()));
     for (int i = 0; i < plot->itemCount(); ++i)
