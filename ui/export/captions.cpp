@@ -101,7 +101,7 @@ QString backtestCaption(const WorkbookResults &w)
     const QString last = b.days.empty() ? QString() : dateText(b.days.back().date);
     QString text = tr("Each day's profit or loss of today's holdings against the one-day Value-at-Risk at %1 confidence "
                       "that the %2 model forecast the day before, from the %3 returns before it; %4 days from %5 to %6.")
-                       .arg(confidenceText(b.assumptions.confidence), riskModelTitle(b.assumptions.model).toLower(),
+                       .arg(confidenceText(b.assumptions.confidence), (b.assumptions.model == RiskModel::Normal ? tr("normal") : riskModelTitle(b.assumptions.model)),
                             locale.toString(b.window), locale.toString(b.observations), first, last);
     text += QLatin1Char(' ')
           + tr("%1 days lost more than VaR (exceptions); %2 were expected.")

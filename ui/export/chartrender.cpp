@@ -139,8 +139,24 @@ void applyPrintStyle(QCustomPlot *plot, const QSizeF &pane, const PrintFonts &fo
                 f.setPixelSize(f.pixelSize() - 1);
             axis->setLabelFont(f);
         }
-    // (QCPLegend::setFont passes the font on to the items it holds.)
-    plot->legend->setFont(fonts.scaled(plot->legend->font()));
+    // Legends in the tick size, smaller still until they fit the width (QCPLegend::setFont passes
+    // the font on to the items it holds); titles likewise.
+    QFont legendFont = fonts.scaled(chartstyle::tickFont());
+    plot->legend->setFont(legendFont);
+    const int icon = QFontMetrics(legendFont).height();
+    plot->legend->setIconSize(2 * icon, icon);
+    plot->legend->setRowSpacing(0);
+    while (legendFont.pixelSize() > 7 && plot->legend->minimumOuterSizeHint().width() > pane.width() - 8.0) {
+        legendFont.setPixelSize(legendFont.pixelSize() - 1);
+        plot->legend->setFont(legendFont);
+    }
+    for (QCPLayoutElement *element : plot->plotLayout()->elements(true))
+        if (auto *text = qobject_cast<QCPTextElement *>(element)) {
+            QFont f = text->font();
+            while (f.pixelSize() > 7 && QFontMetricsF(f).horizontalAdvance(text->text()) > pane.width() - 24.0)
+                f.setPixelSize(f.pixelSize() - 1);
+            text->setFont(f);
+        }
     for (int i = 0; i < plot->itemCount(); ++i)
         if (auto *text = qobject_cast<QCPItemText *>(plot->item(i)))
             text->setFont(fonts.scaled(text->font()));
@@ -176,6 +192,19 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
         chart->clearPointer();
         // One entry a row: the entries are sentences that two columns would cut.
         moveLegendBelow(chart->plot(), 1);
+        if (area.width() < canvasUnits(120.0)) {
+            // Narrow: the VaR and ES labels right of their lines (ES above), so they do not run
+            // off the left edge, where the tail leaves little room.
+            QCustomPlot *p = chart->plot();
+            for (int i = 0; i < p->itemCount(); ++i)
+                if (auto *t = qobject_cast<QCPItemText *>(p->item(i));
+                    t && (t->text() == chart->data().varLabel || t->text() == chart->data().esLabel))
+                {
+                    t->setPositionAlignment(Qt::AlignLeft | Qt::AlignVCenter);
+                    // Further apart than on screen: the plot is only a few lines high.
+                    t->position->setCoords(t->position->key(), t->text() == chart->data().esLabel ? 0.12 : 0.45);
+                }
+        }
         charts.note = chart->data().note;
         charts.panes.push_back({chart->plot(), area});
         break;
@@ -258,7 +287,7 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
         auto *chart = new BacktestChart(host);
         chart->setData(*results.backtestChart);
         // Its legend is already under the plot, in one row; on paper it takes two.
-        chart->plot()->legend->setWrap(area.width() < canvasUnits(200.0) ? 2 : 3);
+        chart->plot()->legend->setWrap(area.width() < canvasUnits(120.0) ? 1 : area.width() < canvasUnits(200.0) ? 2 : 3);
         chart->plot()->legend->setFillOrder(QCPLegend::foColumnsFirst, true);
         charts.note = results.backtestChart->note;
         charts.panes.push_back({chart->plot(), area});
@@ -267,7 +296,29 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
     case ChartKind::Models: {
         auto *chart = new ModelComparisonChart(host);
         chart->setData(*results.modelsChart);
-        moveLegendBelow(chart->plot(), 2);
+        const bool narrow = area.width() < canvasUnits(120.0);
+        moveLegendBelow(chart->plot(), narrow ? 1 : 2);
+        if (narrow) {
+            // Model names on two lines and the bar figures smaller, so neighbours do not collide.
+            // Only the VaR bars keep their figure (the ES ones would overlap them); the workbook's
+            // model is named in the caption rather than under its bars.
+            if (auto ticker = chart->plot()->xAxis->ticker().dynamicCast<QCPAxisTickerText>()) {
+                QMap<double, QString> ticks;
+                const auto &groups = results.modelsChart->groups;
+                for (std::size_t i = 0; i < groups.size(); ++i)
+                    ticks.insert(static_cast<double>(i + 1), QString(groups[i].model)
+                                                                 .replace(QLatin1Char(' '), QLatin1Char('\n'))
+                                                                 .replace(QStringLiteral("–"), QStringLiteral("–\n")));
+                ticker->setTicks(ticks);
+            }
+            QCustomPlot *p = chart->plot();
+            for (int i = p->itemCount() - 1; i >= 0; --i)
+                if (auto *t = qobject_cast<QCPItemText *>(p->item(i))) {
+                    const double key = t->position->key();
+                    if (key > std::round(key) + 0.01)
+                        p->removeItem(t);
+                }
+        }
         charts.note = results.modelsChart->note;
         charts.panes.push_back({chart->plot(), area});
         break;
@@ -371,8 +422,10 @@ QString sizePresetTitle(SizePreset preset)
 
 double printLabelPoints(const QSizeF &sizeMm)
 {
-    // About 7.7 pt in a column, 9.4 pt on half a page, 11 pt on a slide (read from further away).
-    return std::clamp(6.0 + 0.02 * sizeMm.width(), 7.0, 11.0);
+    // About 7.7 pt in a column, 9.4 pt on half or a full page, and more beyond a page's width,
+    // 12.3 pt on a slide (read from further away).
+    const double w = sizeMm.width();
+    return w <= 170.0 ? std::max(7.0, 6.0 + 0.02 * w) : std::min(13.0, 9.4 + 0.035 * (w - 170.0));
 }
 
 QSize exportPixelSize(const QSizeF &sizeMm, int dpi)
