@@ -78,9 +78,9 @@ void ModelComparisonChart::setData(const ModelComparisonChartData &data)
     QSharedPointer<QCPAxisTickerText> ticker(new QCPAxisTickerText);
     QVector<double> keys, vars, ess;
     const int n = static_cast<int>(data.groups.size());
-    // Each bar's share of the group (0.34 of a key unit) and the 2 px gap put the bars' centres
-    // about 0.17 either side of the key.
-    constexpr double half = 0.175;
+    // The VaR bar ends just left of the key and the ES bar starts just right of it (each 0.34
+    // wide, 2 px apart): their figures grow outwards from the key, so the two never collide.
+    constexpr double apart = 0.004;
     for (int i = 0; i < n; ++i) {
         const ModelComparisonGroup &g = data.groups[static_cast<std::size_t>(i)];
         const double key = i + 1;
@@ -94,8 +94,8 @@ void ModelComparisonChart::setData(const ModelComparisonChartData &data)
         keys << key;
         vars << g.var;
         ess << g.es;
-        barLabel(p, chartstyle::money(g.var), key - half, g.var);
-        barLabel(p, chartstyle::money(g.es), key + half, g.es);
+        barLabel(p, chartstyle::money(g.var), key - apart, g.var)->setPositionAlignment(Qt::AlignRight | Qt::AlignBottom);
+        barLabel(p, chartstyle::money(g.es), key + apart, g.es)->setPositionAlignment(Qt::AlignLeft | Qt::AlignBottom);
     }
     m_var->setData(keys, vars, true);
     m_es->setData(keys, ess, true);

@@ -315,8 +315,12 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
             for (int i = p->itemCount() - 1; i >= 0; --i)
                 if (auto *t = qobject_cast<QCPItemText *>(p->item(i))) {
                     const double key = t->position->key();
-                    if (key > std::round(key) + 0.01)
+                    if (key > std::round(key) + 0.001) { // the ES figures sit right of the key
                         p->removeItem(t);
+                    } else if (key < std::round(key) - 0.001) { // a VaR figure: over its bar
+                        t->position->setCoords(std::round(key) - 0.175, t->position->value());
+                        t->setPositionAlignment(Qt::AlignHCenter | Qt::AlignBottom);
+                    }
                 }
         }
         charts.note = results.modelsChart->note;
