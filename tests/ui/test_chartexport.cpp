@@ -114,6 +114,7 @@ private slots:
     void missingBacktestIsAPartProblem();
     void modelComparisonChartData();
     void captionIsDrawnAsText();
+    void noScreenChrome();
 };
 
 void TestChartExport::everyChartInEveryFormat_data()
@@ -353,6 +354,25 @@ void TestChartExport::captionIsDrawnAsText()
     QVERIFY2(svg.contains("Zebra"), "the caption is text in the SVG");
     s.print.currency = QStringLiteral("EUR");
     QVERIFY2(written(s, sampleResults()).contains("(EUR)"), "the currency on the money axis");
+}
+
+void TestChartExport::noScreenChrome()
+{
+    // Paper cannot be clicked or hovered: the map's "click to use a point" hint and the loss
+    // tail's hover read-out ("P&L below …", losstailchartdata.h) are not drawn.
+    ChartExportSettings s;
+    s.format = ExportFormat::Svg;
+    s.kind = ChartKind::Tradeoff;
+    const QByteArray tradeoff = written(s, sampleResults());
+    QVERIFY(tradeoff.contains("VaR over horizon and confidence"));
+    QVERIFY(!tradeoff.contains("click"));
+    s.kind = ChartKind::LossTail;
+    const QByteArray tail = written(s, sampleResults());
+    QVERIFY(!tail.contains("P&amp;L below"));
+    QVERIFY(!tail.contains("P&L below"));
+    // White background: the first pixel of a PNG is white.
+    const QImage image = renderChartImage(ChartKind::Backtest, sampleResults(), ChartPrintOptions{}, 50);
+    QCOMPARE(image.pixelColor(0, 0), QColor(Qt::white));
 }
 
 QTEST_MAIN(TestChartExport)
