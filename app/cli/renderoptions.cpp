@@ -41,6 +41,10 @@ Result<RenderOptions> parseRenderOptions(const std::vector<std::string> &args)
             options.noCaption = true;
             continue;
         }
+        if (option == "--percent") {
+            s.print.lossTailUnit = ui::LossTailUnit::PercentOfValue;
+            continue;
+        }
         if (option.rfind("--", 0) != 0) {
             if (!options.workbookPath.empty())
                 return usage(option, "unexpected argument: give one workbook (the first was \"" + options.workbookPath + "\")");
@@ -129,6 +133,7 @@ Usage:
   --caption TEXT      the caption under the chart, instead of the one written from the results
   --no-caption        no caption
   --currency CODE     said on money axes, e.g. EUR (the workbook does not record its currency)
+  --percent           loss-tail: the P&L axis in % of portfolio value instead of money
   --help              this text
 
 The figures are estimates from past prices under the workbook's assumptions: VaR is not the worst

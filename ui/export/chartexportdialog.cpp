@@ -74,6 +74,9 @@ ChartExportDialog::ChartExportDialog(const WorkbookResults &results, ChartKind k
     m_currency->setPlaceholderText(tr("e.g. EUR (else the axes say “money”)"));
     m_currency->setMaxLength(12);
 
+    m_percent = new QCheckBox(tr("Loss tail: P&&L axis in % of portfolio value"), this);
+    m_percent->setChecked(last.print.lossTailUnit == LossTailUnit::PercentOfValue);
+
     m_caption = new QPlainTextEdit(this);
     m_caption->setTabChangesFocus(true);
     m_caption->setMinimumHeight(90);
@@ -96,6 +99,7 @@ ChartExportDialog::ChartExportDialog(const WorkbookResults &results, ChartKind k
     form->addRow(tr("&Format:"), m_format);
     form->addRow(tr("&Resolution:"), m_dpi);
     form->addRow(tr("Curr&ency:"), m_currency);
+    form->addRow(QString(), m_percent);
     form->addRow(tr("Ca&ption:"), m_caption);
 
     auto *buttons = new QDialogButtonBox(QDialogButtonBox::Cancel, this);
@@ -130,6 +134,7 @@ ChartExportDialog::ChartExportDialog(const WorkbookResults &results, ChartKind k
     });
     m_dpi->setEnabled(last.format == ExportFormat::Png);
     connect(m_currency, &QLineEdit::textChanged, this, &ChartExportDialog::updatePreview);
+    connect(m_percent, &QCheckBox::toggled, this, &ChartExportDialog::updatePreview);
     connect(m_caption, &QPlainTextEdit::textChanged, this, [this] {
         if (!m_settingCaption)
             m_captionEdited = true;
@@ -147,6 +152,7 @@ ChartExportSettings ChartExportDialog::settings() const
     s.print.sizeMm = QSizeF(m_width->value(), m_height->value());
     s.print.caption = m_caption->toPlainText();
     s.print.currency = m_currency->text().trimmed();
+    s.print.lossTailUnit = m_percent->isChecked() ? LossTailUnit::PercentOfValue : LossTailUnit::Money;
     return s;
 }
 
@@ -157,6 +163,7 @@ void ChartExportDialog::chartChanged()
     m_unavailable->setText(reason);
     m_unavailable->setVisible(!reason.isEmpty());
     m_save->setEnabled(reason.isEmpty());
+    m_percent->setEnabled(kind == ChartKind::LossTail);
     if (!m_captionEdited) {
         m_settingCaption = true;
         m_caption->setPlainText(reason.isEmpty() ? captionFor(kind, m_results) : QString());

@@ -9,6 +9,7 @@
 
 #include <QDialog>
 
+class QCheckBox;
 class QComboBox;
 class QDoubleSpinBox;
 class QLabel;
@@ -34,6 +35,7 @@ public:
     QDoubleSpinBox *heightMm() const { return m_height; }
     QPlainTextEdit *captionEdit() const { return m_caption; }
     QLabel *preview() const { return m_preview; }
+    QCheckBox *percentOption() const { return m_percent; }
 
 signals:
     // "Copy" was pressed: put the chart as set on the clipboard.
@@ -52,6 +54,7 @@ private:
     QComboBox *m_format = nullptr;
     QComboBox *m_dpi = nullptr;
     QLineEdit *m_currency = nullptr;
+    QCheckBox *m_percent = nullptr; // the loss tail's P&L axis in % of portfolio value
     QPlainTextEdit *m_caption = nullptr;
     QLabel *m_preview = nullptr;
     QLabel *m_unavailable = nullptr;

@@ -61,6 +61,8 @@ void ChartExporter::exportChart()
         QMessageBox::information(m_window, tr("Export Chart"), tr("There are no figures to draw yet."));
         return;
     }
+    // The loss tail goes out in the unit it is shown in.
+    m_last.print.lossTailUnit = m_charts.lossTailInPercent() ? LossTailUnit::PercentOfValue : LossTailUnit::Money;
     ChartExportDialog dialog(*results, m_charts.currentChartKind().value_or(ChartKind::LossTail), m_last, m_window);
     connect(&dialog, &ChartExportDialog::copyRequested, this,
             [this, &results](const ChartExportSettings &s) { copy(s, *results); });
@@ -90,6 +92,7 @@ void ChartExporter::copyChart()
         return;
     ChartExportSettings s = m_last;
     s.kind = m_charts.currentChartKind().value_or(ChartKind::LossTail);
+    s.print.lossTailUnit = m_charts.lossTailInPercent() ? LossTailUnit::PercentOfValue : LossTailUnit::Money;
     // Without the dialog the caption is the generated one: the clipboard carries the whole picture.
     s.print.caption = captionFor(s.kind, *results);
     copy(s, *results);

@@ -192,19 +192,25 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
         chart->clearPointer();
         // One entry a row: the entries are sentences that two columns would cut.
         moveLegendBelow(chart->plot(), 1);
-        if (area.width() < canvasUnits(120.0)) {
-            // Narrow: the VaR and ES labels right of their lines (ES above), so they do not run
-            // off the left edge, where the tail leaves little room.
-            QCustomPlot *p = chart->plot();
-            for (int i = 0; i < p->itemCount(); ++i)
-                if (auto *t = qobject_cast<QCPItemText *>(p->item(i));
-                    t && (t->text() == chart->data().varLabel || t->text() == chart->data().esLabel))
-                {
-                    t->setPositionAlignment(Qt::AlignLeft | Qt::AlignVCenter);
-                    // Further apart than on screen: the plot is only a few lines high.
-                    t->position->setCoords(t->position->key(), t->text() == chart->data().esLabel ? 0.12 : 0.45);
-                }
-        }
+        // The VaR and ES labels sit left of their lines; where the tail leaves too little room
+        // for them on paper, both go right of their lines instead, further apart (ES above).
+        QCustomPlot *p = chart->plot();
+        const LossTailChartData &d = chart->data();
+        const PrintFonts fonts = fontsFor(options.sizeMm);
+        const auto room = [&](double x) { return (x - d.xMin) / std::max(1e-12, d.xMax - d.xMin) * area.width() * 0.8; };
+        std::vector<QCPItemText *> labels;
+        bool cramped = false;
+        for (int i = 0; i < p->itemCount(); ++i)
+            if (auto *t = qobject_cast<QCPItemText *>(p->item(i)); t && (t->text() == d.varLabel || t->text() == d.esLabel)) {
+                labels.push_back(t);
+                const double width = QFontMetricsF(fonts.scaled(t->font())).horizontalAdvance(t->text()) + 12.0;
+                cramped = cramped || width > room(t->position->key());
+            }
+        if (cramped)
+            for (QCPItemText *t : labels) {
+                t->setPositionAlignment(Qt::AlignLeft | Qt::AlignVCenter);
+                t->position->setCoords(t->position->key(), t->text() == d.esLabel ? 0.12 : 0.45);
+            }
         charts.note = chart->data().note;
         charts.panes.push_back({chart->plot(), area});
         break;

@@ -127,6 +127,11 @@ std::optional<ChartKind> ChartTabs::currentChartKind() const
     return std::nullopt;
 }
 
+bool ChartTabs::lossTailInPercent() const
+{
+    return m_percent->isChecked();
+}
+
 void ChartTabs::setChartActions(QAction *exportChart, QAction *copyChart)
 {
     m_exportChart = exportChart;

@@ -49,6 +49,8 @@ public:
     // The chart of the tab in view, for Export Chart and Copy Chart; nullopt on the tabs without
     // one (trying a trade, stress) and without figures.
     std::optional<ChartKind> currentChartKind() const;
+    // The loss tail is drawn in % of portfolio value (its option under the chart).
+    bool lossTailInPercent() const;
     // The window's Export Chart and Copy Chart, shown as buttons beside the tabs and enabled
     // while the tab in view has a chart.
     void setChartActions(QAction *exportChart, QAction *copyChart);
