@@ -19,6 +19,7 @@ namespace tailwise::ui {
 
 class Actions;
 class AssumptionsPane;
+class ChartExporter;
 class ChartTabs;
 class HeadlinePanel;
 class HoldingsEditor;
@@ -44,6 +45,7 @@ public:
     // Offers work left in a recovery file by a session that did not close cleanly (recoveryoffer.h);
     // `ask` answers instead of the dialog (tests). main.cpp calls it once the window is shown.
     RecoveryOutcome offerRecovery(const RecoveryQuestion &ask = {});
+    ChartExporter *chartExporter() const { return m_chartExporter; }
 
     // The file commands without dialogs (the menu commands ask for the path, then call these).
     // Each returns an empty string on success, or the reason nothing changed.
@@ -86,6 +88,7 @@ private:
     AssumptionsPane *m_assumptions = nullptr;
     HeadlinePanel *m_headline = nullptr;
     ChartTabs *m_charts = nullptr;
+    ChartExporter *m_chartExporter = nullptr;
     QSplitter *m_sideSplitter = nullptr;  // assumptions | the rest
     QSplitter *m_workSplitter = nullptr;  // charts over holdings
     QWidget *m_progress = nullptr;

@@ -6,6 +6,7 @@
 #include "varoptions.h"
 #include "workbookinput.h"
 #include "packcommand.h"
+#include "rendercommand.h"
 
 #include "tailwise/holdings.h"
 #include "tailwise/prices.h"
@@ -28,6 +29,8 @@ Usage:
   tailwise-cli var [options]     risk figures of a portfolio (tailwise-cli var --help)
   tailwise-cli backtest [options]  would the VaR have held up? (tailwise-cli backtest --help)
   tailwise-cli pack [options]    make a workbook (.tailwise) from CSV files (tailwise-cli pack --help)
+  tailwise-cli render WORKBOOK --chart KIND --out FILE
+                                 draw a chart to PNG, SVG or PDF (tailwise-cli render --help)
   tailwise-cli --help            this text
   tailwise-cli --version
 )";
@@ -121,5 +124,7 @@ int main(int argc, char **argv)
         return tailwise::cli::runPackCommand({args.begin() + 1, args.end()});
     if (args[0] == "backtest")
         return tailwise::cli::runBacktestCommand({args.begin() + 1, args.end()});
-    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest, pack)");
+    if (args[0] == "render")
+        return tailwise::cli::runRenderCommand({args.begin() + 1, args.end()});
+    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest, pack, render)");
 }
