@@ -1,5 +1,6 @@
 #include "assumptionspane.h"
 
+#include "assumptionlabels.h"
 #include "document/workbook.h"
 #include "localnumbers.h"
 #include "modelsettings.h"
@@ -158,8 +159,8 @@ void AssumptionsPane::buildWidgets()
     m_windowRange->setToolTip(tr("The dates of the first and last daily return in the window."));
     form->addRow(tr("Covers"), m_windowRange);
     m_returns = new QComboBox(this);
-    m_returns->addItem(tr("Simple (percentage change)"), int(ReturnType::Simple));
-    m_returns->addItem(tr("Log (continuously compounded)"), int(ReturnType::Log));
+    for (ReturnType r : {ReturnType::Simple, ReturnType::Log})
+        m_returns->addItem(returnTypeLabel(r), int(r));
     m_returns->setToolTip(tr("How a day's move is measured: the percentage change of the price, or the log of "
                              "its ratio. They differ little for small daily moves."));
     form->addRow(tr("Returns"), m_returns);
@@ -167,8 +168,8 @@ void AssumptionsPane::buildWidgets()
     // --- Estimation ---
     form->addRow(sectionTitle(tr("How it is estimated"), this));
     m_estimator = new QComboBox(this);
-    m_estimator->addItem(tr("Equal weights"), int(CovarianceEstimator::Sample));
-    m_estimator->addItem(tr("Recent days weigh more (EWMA)"), int(CovarianceEstimator::Ewma));
+    for (CovarianceEstimator e : {CovarianceEstimator::Sample, CovarianceEstimator::Ewma})
+        m_estimator->addItem(estimatorLabel(e), int(e));
     m_estimator->setToolTip(tr("How the window's days are weighted when estimating volatilities and "
                                "correlations: all alike, or recent days more (exponentially weighted)."));
     form->addRow(tr("Weighting"), m_estimator);
@@ -185,8 +186,8 @@ void AssumptionsPane::buildWidgets()
     lambdaRow->addWidget(m_lambdaEffective);
     form->addRow(tr("Decay λ"), lambdaRow);
     m_mean = new QComboBox(this);
-    m_mean->addItem(tr("Zero"), int(MeanModel::Zero));
-    m_mean->addItem(tr("Estimated from the window"), int(MeanModel::Sample));
+    for (MeanModel m : {MeanModel::Zero, MeanModel::Sample})
+        m_mean->addItem(meanLabel(m), int(m));
     m_mean->setToolTip(tr("The expected daily gain: taken as zero (the cautious, usual choice), or the window's "
                           "average. An estimated gain lowers VaR, more so at long horizons."));
     form->addRow(tr("Expected gain"), m_mean);

@@ -1,0 +1,237 @@
+// The PDF report of a workbook: its layout (header, pages, tables kept with their headers) and
+// its words (headline figures equal to core's to the digit shown, every assumption, the cautions).
+//
+// The reference for each figure is core's own result for the same inputs (computeRisk, checked
+// against published values in tests/core), formatted as the window formats it; the text is taken
+// out of the PDF with poppler's pdftotext when it is installed (scripts/setup.sh installs it),
+// and those checks are skipped otherwise. The PDF header ("%PDF-") and the page count are checked
+// always.
+#include "document/workbookfile.h"
+#include "export/reportpdf.h"
+#include "export/reportsections.h"
+#include "panels/localnumbers.h"
+
+#include "tailwise/backtest.h"
+#include "tailwise/comparison.h"
+#include "tailwise/risk.h"
+
+#include <QBuffer>
+#include <QFile>
+#include <QPainter>
+#include <QProcess>
+#include <QRegularExpression>
+#include <QStandardPaths>
+#include <QTemporaryDir>
+#include <QTest>
+
+using namespace tailwise;
+using namespace tailwise::ui;
+
+namespace {
+
+QString samplePath() { return QStringLiteral(TAILWISE_SOURCE_DIR "/samples/larchmere.tailwise"); }
+
+// The page count as the PDF's page tree states it ("/Type /Pages … /Count n").
+int pdfPageCount(const QByteArray &pdf)
+{
+    const QRegularExpression re(QStringLiteral("/Type\\s*/Pages\\b[^>]*?/Count\\s+(\\d+)"));
+    const auto m = re.match(QString::fromLatin1(pdf));
+    return m.hasMatch() ? m.captured(1).toInt() : -1;
+}
+
+// pdftotext's text of the PDF, or a null string when poppler is not installed.
+QString pdfText(const QString &path)
+{
+    const QString tool = QStandardPaths::findExecutable(QStringLiteral("pdftotext"));
+    if (tool.isEmpty())
+        return {};
+    QProcess p;
+    p.start(tool, {QStringLiteral("-enc"), QStringLiteral("UTF-8"), path, QStringLiteral("-")});
+    if (!p.waitForFinished(60000))
+        return {};
+    return QString::fromUtf8(p.readAllStandardOutput());
+}
+
+// pdftotext breaks lines where the page does; compare with all white space made single spaces.
+QString squeezed(QString s) { return s.replace(QRegularExpression(QStringLiteral("\\s+")), QStringLiteral(" ")); }
+
+struct Inputs {
+    WorkbookContents contents;
+    report::ReportInputs in;
+};
+
+// The sample's inputs, with core's results for them (as the window's computations give them).
+std::unique_ptr<Inputs> sampleInputs()
+{
+    auto loaded = loadWorkbook(samplePath());
+    if (!loaded)
+        qFatal("%s", loaded.error().message.c_str());
+    auto inputs = std::make_unique<Inputs>();
+    inputs->contents = std::move(loaded).value();
+    const WorkbookContents &c = inputs->contents;
+    report::ReportInputs &in = inputs->in;
+    in.contents = &inputs->contents;
+    in.workbookName = QStringLiteral("larchmere.tailwise");
+    in.date = QDate(2026, 12, 1);
+    in.report = computeRisk(c.prices, c.holdings, c.assumptions);
+    if (c.backtest) {
+        report::BacktestPart part;
+        part.testSize = c.backtest->testSize;
+        for (std::size_t i = 0; i < c.backtest->models.size(); ++i) {
+            BacktestRequest request{c.prices, c.holdings, c.assumptions};
+            request.assumptions.window = c.backtest->window;
+            request.assumptions.model = c.backtest->models[i];
+            request.assumptions.horizonDays = 1;
+            if (i == 0)
+                part.main = runBacktest(request);
+            else
+                part.others.emplace_back(c.backtest->models[i], runBacktest(request));
+        }
+        in.backtest = std::move(part);
+    }
+    Assumptions fewDraws = c.assumptions;
+    fewDraws.simulations = 20000; // quick: the table's rows are core's either way
+    in.models = compareModels(c.prices, c.holdings, fewDraws);
+    return inputs;
+}
+
+} // namespace
+
+class TestReport : public QObject {
+    Q_OBJECT
+private slots:
+    void sampleReportHasItsFiguresAssumptionsAndCautions();
+    void longTablesRunOverPagesWithTheirHeader();
+    void refusesAnUnwritablePath();
+    void reportWithoutFiguresStillHasAssumptionsAndCautions();
+};
+
+void TestReport::sampleReportHasItsFiguresAssumptionsAndCautions()
+{
+    const auto inputs = sampleInputs();
+    QVERIFY2(inputs->in.report.ok(), inputs->in.report.ok() ? "" : inputs->in.report.error().message.c_str());
+    const RiskReport &r = inputs->in.report.value();
+    const report::Document doc = report::buildReport(inputs->in);
+
+    QTemporaryDir dir;
+    const QString path = dir.filePath(QStringLiteral("report.pdf"));
+    const auto pages = report::writePdf(doc, path);
+    QVERIFY2(pages.ok(), pages.ok() ? "" : pages.error().message.c_str());
+    QFile file(path);
+    QVERIFY(file.open(QIODevice::ReadOnly));
+    const QByteArray pdf = file.readAll();
+    QVERIFY2(pdf.startsWith("%PDF-"), pdf.left(16).constData());
+    QCOMPARE(pdfPageCount(pdf), pages.value());
+    QVERIFY2(pages.value() >= 3, qPrintable(QString::number(pages.value())));
+    QFile::remove(QStringLiteral("/tmp/tailwise-report-test.pdf"));
+    QFile::copy(path, QStringLiteral("/tmp/tailwise-report-test.pdf"));
+
+    // The document's own words first (no PDF tool needed): no figure reads nan or inf.
+    const QString words = doc.plainText();
+    QVERIFY2(!words.contains(QRegularExpression(QStringLiteral("\\b(nan|inf)\\b"), QRegularExpression::CaseInsensitiveOption)),
+             qPrintable(words));
+
+    const QString text = pdfText(path);
+    if (text.isNull())
+        QSKIP("pdftotext (poppler-utils) is not installed: the PDF's text is not checked");
+    const QString flat = squeezed(text);
+    auto expect = [&](const QString &needle) {
+        QVERIFY2(flat.contains(squeezed(needle)), qPrintable(QStringLiteral("missing \"%1\" in:\n%2").arg(needle, flat)));
+    };
+    // Headline: core's VaR and ES in money and as % of value, to the digits the report shows.
+    expect(moneyText(r.figures.var));
+    expect(moneyText(r.figures.es));
+    expect(percentText(r.varFraction));
+    expect(percentText(r.esFraction));
+    expect(moneyText(r.portfolioValue, 0));
+    // Every holding in the contributions table, with its component VaR.
+    for (const HoldingRisk &h : r.holdings) {
+        expect(QString::fromStdString(h.asset));
+        expect(moneyText(h.componentVar, 0));
+    }
+    // The assumptions.
+    for (const char *s : {"Price history", "Window", "Returns", "Weighting (estimator)", "Expected gain (mean)",
+                          "Model", "Confidence", "Horizon", "Days a year", "Simple (percentage change)", "Equal weights"})
+        expect(QString::fromUtf8(s));
+    expect(QStringLiteral("the 500 most recent daily returns"));
+    expect(QStringLiteral("10 trading days"));
+    expect(dateText(r.windowFirst));
+    expect(dateText(r.windowLast));
+    // The backtest and its tests.
+    expect(QStringLiteral("Backtest"));
+    expect(QStringLiteral("Kupiec"));
+    expect(QStringLiteral("Christoffersen independence"));
+    const BacktestResult &b = inputs->in.backtest->main.value();
+    expect(QStringLiteral("%1 exceptions in %2 days").arg(QLocale().toString(b.exceptions), QLocale().toString(b.observations)));
+    // The models compared.
+    expect(QStringLiteral("The models compared"));
+    expect(QStringLiteral("Cornish–Fisher"));
+    // The cautions.
+    expect(QStringLiteral("VaR is not the worst case"));
+    expect(QStringLiteral("Neither figure is a forecast, a guarantee or advice"));
+    expect(QStringLiteral("the models your supervisor has approved"));
+    expect(QStringLiteral("past window describes the future"));
+    // Header and footer on every page.
+    expect(QStringLiteral("Page 1 of %1").arg(pages.value()));
+    expect(QStringLiteral("Page %1 of %1").arg(pages.value()));
+    QCOMPARE(text.count(QStringLiteral("larchmere.tailwise")) >= pages.value(), true);
+    QVERIFY2(!flat.contains(QRegularExpression(QStringLiteral("\\b(nan|inf)\\b"), QRegularExpression::CaseInsensitiveOption)),
+             qPrintable(flat));
+}
+
+void TestReport::longTablesRunOverPagesWithTheirHeader()
+{
+    report::Document doc;
+    doc.workbookName = QStringLiteral("long.tailwise");
+    doc.dateText = QStringLiteral("1 December 2026");
+    doc.add(report::TextStyle::Heading, QStringLiteral("A long table"));
+    report::Table t;
+    t.columns = {{QStringLiteral("Row"), false, 1.0}, {QStringLiteral("Amount"), true, 1.0}};
+    for (int i = 0; i < 200; ++i)
+        t.rows.push_back({QStringLiteral("row %1").arg(i), QString::number(i * 1000)});
+    doc.add(t);
+    QBuffer buffer;
+    buffer.open(QIODevice::WriteOnly);
+    const int pages = report::writePdf(doc, buffer);
+    QVERIFY2(pages >= 3, qPrintable(QString::number(pages)));
+    QCOMPARE(pdfPageCount(buffer.data()), pages);
+
+    QTemporaryDir dir;
+    const QString path = dir.filePath(QStringLiteral("long.pdf"));
+    QVERIFY(report::writePdf(doc, path).ok());
+    const QString text = pdfText(path);
+    if (text.isNull())
+        QSKIP("pdftotext (poppler-utils) is not installed");
+    // Every page after the first repeats the header, marked as continued; no row is lost.
+    QCOMPARE(text.count(QStringLiteral("Row (continued)")), pages - 1);
+    for (int i : {0, 57, 199})
+        QVERIFY2(text.contains(QStringLiteral("row %1\n").arg(i)) || text.contains(QStringLiteral("row %1 ").arg(i)),
+                 qPrintable(QString::number(i)));
+}
+
+void TestReport::refusesAnUnwritablePath()
+{
+    report::Document doc;
+    doc.add(report::TextStyle::Body, QStringLiteral("x"));
+    const auto written = report::writePdf(doc, QStringLiteral("/nonexistent-folder/report.pdf"));
+    QVERIFY(!written.ok());
+    QVERIFY2(written.error().message.find("/nonexistent-folder/report.pdf") != std::string::npos,
+             written.error().message.c_str());
+}
+
+void TestReport::reportWithoutFiguresStillHasAssumptionsAndCautions()
+{
+    WorkbookContents empty;
+    report::ReportInputs in;
+    in.contents = &empty;
+    in.workbookName = QStringLiteral("Untitled");
+    in.date = QDate(2026, 12, 1);
+    in.report = Error{ErrorKind::InsufficientData, "there is no price history yet", "", 0, 0, "prices"};
+    const QString words = report::buildReport(in).plainText();
+    QVERIFY2(words.contains(QStringLiteral("there is no price history yet")), qPrintable(words));
+    QVERIFY2(words.contains(QStringLiteral("Assumptions")), qPrintable(words));
+    QVERIFY2(words.contains(QStringLiteral("VaR is not the worst case")), qPrintable(words));
+}
+
+QTEST_MAIN(TestReport)
+#include "test_report.moc"
