@@ -19,6 +19,9 @@ Actions::Actions(QUndoStack *undoStack, QObject *parent) : QObject(parent)
     make(ImportPrices, tr("Import &Price History…"), tr("Read daily prices from a CSV file (date, then one column per asset)"));
     make(ImportHoldings, tr("Import &Holdings…"), tr("Read holdings from a CSV file (asset, quantity, optional price)"));
     make(ExportHoldings, tr("&Export Holdings…"), tr("Write the holdings to a CSV file"));
+    make(ExportReport, tr("Export &Report…"),
+         tr("Write a PDF report of the workbook: figures, charts, backtest, assumptions and cautions"));
+    get(ExportReport)->setShortcut(QKeySequence(tr("Ctrl+Shift+R")));
     make(Quit, tr("&Quit"), tr("Close the window"), QKeySequence::Quit);
     get(ImportPrices)->setShortcut(QKeySequence(tr("Ctrl+Shift+I")));
 
@@ -66,6 +69,8 @@ void Actions::buildMenus(QMainWindow *window)
     file->addAction(get(ImportPrices));
     file->addAction(get(ImportHoldings));
     file->addAction(get(ExportHoldings));
+    file->addSeparator();
+    file->addAction(get(ExportReport));
     file->addSeparator();
     file->addAction(get(Quit));
 

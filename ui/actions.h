@@ -26,6 +26,7 @@ public:
         ImportPrices,
         ImportHoldings,
         ExportHoldings,
+        ExportReport,
         Quit,
         Undo,
         Redo,

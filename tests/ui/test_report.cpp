@@ -6,7 +6,11 @@
 // out of the PDF with poppler's pdftotext when it is installed (scripts/setup.sh installs it),
 // and those checks are skipped otherwise. The PDF header ("%PDF-") and the page count are checked
 // always.
+#include "actions.h"
+#include "document/recomputescheduler.h"
+#include "document/workbook.h"
 #include "document/workbookfile.h"
+#include "mainwindow.h"
 #include "export/reportpdf.h"
 #include "export/reportsections.h"
 #include "panels/localnumbers.h"
@@ -15,7 +19,10 @@
 #include "tailwise/comparison.h"
 #include "tailwise/risk.h"
 
+#include <QAction>
 #include <QBuffer>
+#include <QMenu>
+#include <QMenuBar>
 #include <QFile>
 #include <QPainter>
 #include <QProcess>
@@ -104,6 +111,7 @@ private slots:
     void longTablesRunOverPagesWithTheirHeader();
     void refusesAnUnwritablePath();
     void reportWithoutFiguresStillHasAssumptionsAndCautions();
+    void windowExportsTheReportFromTheFileMenu();
 };
 
 void TestReport::sampleReportHasItsFiguresAssumptionsAndCautions()
@@ -231,6 +239,39 @@ void TestReport::reportWithoutFiguresStillHasAssumptionsAndCautions()
     QVERIFY2(words.contains(QStringLiteral("there is no price history yet")), qPrintable(words));
     QVERIFY2(words.contains(QStringLiteral("Assumptions")), qPrintable(words));
     QVERIFY2(words.contains(QStringLiteral("VaR is not the worst case")), qPrintable(words));
+}
+
+void TestReport::windowExportsTheReportFromTheFileMenu()
+{
+    QCoreApplication::setOrganizationName(QStringLiteral("TailwiseTests"));
+    QCoreApplication::setApplicationName(QStringLiteral("TailwiseReportTests"));
+    MainWindow window;
+    QCOMPARE(window.openWorkbookFile(samplePath()), QString());
+    window.scheduler().computeNow();
+    // The command is on the File menu.
+    QAction *action = window.actions().get(Actions::ExportReport);
+    QMenu *file = window.menuBar()->findChild<QMenu *>();
+    bool onFileMenu = false;
+    for (QMenu *menu : window.menuBar()->findChildren<QMenu *>())
+        onFileMenu = onFileMenu || menu->actions().contains(action);
+    QVERIFY(file && onFileMenu);
+
+    QTemporaryDir dir;
+    const QString path = dir.filePath(QStringLiteral("from-window.pdf"));
+    window.exportReportFile(path);
+    QVERIFY(!action->isEnabled()); // one report at a time
+    QTRY_VERIFY_WITH_TIMEOUT(action->isEnabled(), 60000);
+    QFile pdf(path);
+    QVERIFY2(pdf.open(QIODevice::ReadOnly), qPrintable(path));
+    const QByteArray bytes = pdf.readAll();
+    QVERIFY(bytes.startsWith("%PDF-"));
+    QVERIFY(pdfPageCount(bytes) >= 3);
+    const QString text = pdfText(path);
+    if (text.isNull())
+        QSKIP("pdftotext (poppler-utils) is not installed");
+    // The window's own headline figure is on the report.
+    QVERIFY(window.workbook().report().has_value());
+    QVERIFY2(squeezed(text).contains(moneyText(window.workbook().report()->figures.var)), qPrintable(text.left(2000)));
 }
 
 QTEST_MAIN(TestReport)
