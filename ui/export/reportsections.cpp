@@ -206,11 +206,20 @@ void addHorizonAndConfidence(Document &doc, const RiskReport &r, const ChartFigu
     const auto confidences = reportConfidences(a);
     const RiskGrid grid = normalRiskGrid(r.oneDay, horizons, confidences);
     Table t;
-    t.columns.push_back({tr("Horizon"), false, 1.6});
+    t.columns.push_back({tr("Horizon"), false, 2.0});
     for (double c : confidences)
         t.columns.push_back({tr("VaR at %1").arg(confidence(c)), true, 1.0});
     for (std::size_t h = 0; h < horizons.size(); ++h) {
-        QStringList row{tradingDaysText(horizons[h])};
+        QString name = tradingDaysText(horizons[h]);
+        if (horizons[h] == a.daysPerYear)
+            name += tr(" (1 year)");
+        else if (horizons[h] == 5)
+            name += tr(" (1 week)");
+        else if (horizons[h] == 21)
+            name += tr(" (1 month)");
+        else if (horizons[h] == 63)
+            name += tr(" (1 quarter)");
+        QStringList row{name};
         for (std::size_t c = 0; c < confidences.size(); ++c)
             row << moneyText(grid.varAt(h, c), 0);
         if (horizons[h] == a.horizonDays)
@@ -252,12 +261,13 @@ void addBacktest(Document &doc, const BacktestPart &part, const ChartFigure &cha
     if (v.coverageRejected)
         rejected << tr("conditional coverage");
     doc.add(TextStyle::Subheading,
-            tr("%1 zone: %2 exceptions in %3 days, %4 expected. %5")
-                .arg(zoneName(r.zone.zone), locale.toString(r.exceptions), locale.toString(r.observations),
-                     number(r.expectedExceptions, 1),
-                     v.passed ? tr("Passed at the %1 test size: no test rejects the model.").arg(sizeText(part.testSize))
-                              : tr("Not passed at the %1 test size: rejected by %2.")
-                                    .arg(sizeText(part.testSize), rejected.join(QStringLiteral(", ")))));
+            v.passed ? tr("Tests: passed at the %1 test size — no test rejects the model.").arg(sizeText(part.testSize))
+                     : tr("Tests: not passed at the %1 test size — rejected by %2.")
+                           .arg(sizeText(part.testSize), rejected.join(QStringLiteral(", "))));
+    doc.add(TextStyle::Body, tr("Traffic-light zone: %1 — %2 exceptions in %3 days where %4 were expected: %5.")
+                                 .arg(zoneName(r.zone.zone).toLower(), locale.toString(r.exceptions),
+                                      locale.toString(r.observations), number(r.expectedExceptions, 1),
+                                      zoneMeaning(r.zone.zone)));
     Table t;
     t.columns = {{tr("Test"), false, 1.6}, {tr("Statistic"), true, 1.0}, {tr("p-value"), true, 1.0},
                  {tr("Verdict"), false, 4.4}};
