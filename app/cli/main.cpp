@@ -7,6 +7,7 @@
 #include "workbookinput.h"
 #include "packcommand.h"
 #include "pdfreportcommand.h"
+#include "rendercommand.h"
 
 #include "tailwise/holdings.h"
 #include "tailwise/prices.h"
@@ -29,7 +30,10 @@ Usage:
   tailwise-cli var [options]     risk figures of a portfolio (tailwise-cli var --help)
   tailwise-cli backtest [options]  would the VaR have held up? (tailwise-cli backtest --help)
   tailwise-cli pack [options]    make a workbook (.tailwise) from CSV files (tailwise-cli pack --help)
-  tailwise-cli report WORKBOOK --out FILE.pdf  the workbook's PDF report (tailwise-cli report --help)
+  tailwise-cli render WORKBOOK --chart KIND --out FILE
+                                 draw a chart to PNG, SVG or PDF (tailwise-cli render --help)
+  tailwise-cli report WORKBOOK --out FILE.pdf
+                                 the workbook's PDF report (tailwise-cli report --help)
   tailwise-cli --help            this text
   tailwise-cli --version
 )";
@@ -121,7 +125,9 @@ int main(int argc, char **argv)
         return tailwise::cli::runPackCommand({args.begin() + 1, args.end()});
     if (args[0] == "backtest")
         return tailwise::cli::runBacktestCommand({args.begin() + 1, args.end()});
+    if (args[0] == "render")
+        return tailwise::cli::runRenderCommand({args.begin() + 1, args.end()});
     if (args[0] == "report")
         return tailwise::cli::runPdfReportCommand({args.begin() + 1, args.end()});
-    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest, pack, report)");
+    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest, pack, render, report)");
 }

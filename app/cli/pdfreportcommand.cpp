@@ -1,5 +1,6 @@
 #include "pdfreportcommand.h"
 
+#include "guiapplication.h"
 #include "optiontext.h"
 #include "workbookinput.h"
 
@@ -9,7 +10,7 @@
 #include <QDir>
 #include <QFile>
 #include <QFileInfo>
-#include <QGuiApplication>
+#include <QApplication>
 
 #include <cstdio>
 #include <memory>
@@ -63,18 +64,6 @@ Result<PdfReportOptions> parse(const std::vector<std::string> &args)
     return o;
 }
 
-// Drawing text and charts needs a QGuiApplication; the command line makes one on the offscreen
-// platform (no display, no GPU), unless the caller chose a platform.
-std::unique_ptr<QGuiApplication> makeGuiApplication()
-{
-    if (qEnvironmentVariableIsEmpty("QT_QPA_PLATFORM"))
-        qputenv("QT_QPA_PLATFORM", "offscreen");
-    static int argc = 1;
-    static char name[] = "tailwise-cli";
-    static char *argv[] = {name, nullptr};
-    return std::make_unique<QGuiApplication>(argc, argv);
-}
-
 } // namespace
 
 std::string pdfReportHelpText()
@@ -112,8 +101,8 @@ int runPdfReportCommand(const std::vector<std::string> &args)
     if (!contents)
         return fail(exitBadInput, contents.error().message);
     const ui::ReportData data = ui::computeReportData(std::move(contents).value());
-    if (!data.report)
-        return fail(exitBadInput, o.workbook + ": no figures for this workbook's inputs: " + data.report.error().message);
+    if (!data.results)
+        return fail(exitBadInput, o.workbook + ": no figures for this workbook's inputs: " + data.results.error().message);
     const auto app = makeGuiApplication();
     const QString out = QFile::decodeName(o.out.c_str());
     const auto written = ui::writeReport(data, QFileInfo(QFile::decodeName(o.workbook.c_str())).fileName(), out);
@@ -121,7 +110,7 @@ int runPdfReportCommand(const std::vector<std::string> &args)
         return fail(exitBadInput, written.error().message);
     std::fprintf(stdout, "Wrote %s (%d pages).\n", QDir::toNativeSeparators(out).toLocal8Bit().constData(),
                  written.value());
-    for (const auto &w : data.report.value().warnings)
+    for (const auto &w : data.results.value().report.warnings)
         std::fprintf(stderr, "tailwise-cli: warning: %s\n", w.c_str());
     return exitOk;
 }

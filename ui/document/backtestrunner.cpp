@@ -1,5 +1,6 @@
 #include "document/backtestrunner.h"
 
+#include "document/backtestrequest.h"
 #include "document/workbook.h"
 
 #include <QPointer>
@@ -31,14 +32,7 @@ BacktestRunner::~BacktestRunner()
 
 BacktestRequest BacktestRunner::requestFor(const Workbook &workbook, const BacktestSettings &settings, RiskModel model)
 {
-    BacktestRequest request;
-    request.prices = workbook.prices();
-    request.holdings = workbook.holdings();
-    request.assumptions = workbook.assumptions();
-    request.assumptions.window = settings.window;
-    request.assumptions.model = model;
-    request.assumptions.horizonDays = 1; // a backtest of one-day VaR, whatever the headline's horizon
-    return request;
+    return backtestRequestFor(workbook.contents(), settings, model);
 }
 
 void BacktestRunner::inputsChanged()

@@ -1,37 +1,70 @@
 #include "reportexport.h"
 
-#include "reportpdf.h"
-
-#include "tailwise/backtest.h"
-#include "tailwise/comparison.h"
-#include "tailwise/risk.h"
+#include "document/backtestrequest.h"
+#include "export/captions.h"
+#include "export/chartrender.h"
+#include "export/reportpdf.h"
+#include "export/reportsections.h"
 
 namespace tailwise::ui {
+
+namespace {
+
+// The charts are laid out as if for a page 250 mm wide and drawn scaled into the 170 mm text
+// width (A4 less 20 mm margins, reportpdf.h): their labels then come out at about 8 pt on paper,
+// the size of the report's tables, with room between them (printLabelPoints in chartrender.h).
+constexpr double kChartLayoutWidthMm = 250.0;
+
+// Height over width of each chart on the page.
+double aspectOf(ChartKind kind)
+{
+    switch (kind) {
+    case ChartKind::Tradeoff: return 0.62;
+    case ChartKind::Contributions: return 0.56;
+    case ChartKind::LossTail: return 0.52;
+    case ChartKind::Backtest: return 0.48;
+    case ChartKind::Models: return 0.45;
+    }
+    return 0.5;
+}
+
+report::ChartFigure figureFor(ChartKind kind, const WorkbookResults &results)
+{
+    report::ChartFigure figure;
+    figure.aspect = aspectOf(kind);
+    if (!chartUnavailableReason(kind, results).isEmpty())
+        return figure; // no picture; the section's words and tables remain
+    ChartPrintOptions options;
+    options.sizeMm = QSizeF(kChartLayoutWidthMm, kChartLayoutWidthMm * figure.aspect);
+    figure.paint = [kind, &results, options](QPainter &painter, const QRectF &target) {
+        paintChart(painter, target, kind, results, options);
+    };
+    figure.caption = captionFor(kind, results);
+    return figure;
+}
+
+// A part's problem sentence (WorkbookResults) as the error the report's section shows.
+Error problem(ErrorKind kind, const QString &sentence)
+{
+    Error e;
+    e.kind = kind;
+    e.message = sentence.toStdString();
+    return e;
+}
+
+} // namespace
 
 ReportData computeReportData(WorkbookContents contents)
 {
     ReportData data;
     data.contents = std::move(contents);
-    const WorkbookContents &c = data.contents;
-    data.report = computeRisk(c.prices, c.holdings, c.assumptions);
-    if (!data.report)
-        return data;
-    if (c.backtest && !c.backtest->models.empty()) {
-        report::BacktestPart part;
-        part.testSize = c.backtest->testSize;
-        for (std::size_t i = 0; i < c.backtest->models.size(); ++i) {
-            BacktestRequest request{c.prices, c.holdings, c.assumptions};
-            request.assumptions.window = c.backtest->window;
-            request.assumptions.model = c.backtest->models[i];
-            request.assumptions.horizonDays = 1; // a backtest of one-day VaR, as the window runs it
-            if (i == 0)
-                part.main = runBacktest(request);
-            else
-                part.others.emplace_back(c.backtest->models[i], runBacktest(request));
-        }
-        data.backtest = std::move(part);
+    data.results = computeWorkbookResults(data.contents);
+    if (data.results && data.contents.backtest) {
+        const BacktestSettings &settings = *data.contents.backtest;
+        for (std::size_t i = 1; i < settings.models.size(); ++i)
+            data.otherBacktests.emplace_back(settings.models[i],
+                                             runBacktest(backtestRequestFor(data.contents, settings, settings.models[i])));
     }
-    data.models = compareModels(c.prices, c.holdings, c.assumptions);
     return data;
 }
 
@@ -41,9 +74,32 @@ Result<int> writeReport(const ReportData &data, const QString &workbookName, con
     in.contents = &data.contents;
     in.workbookName = workbookName;
     in.date = date;
-    in.report = data.report;
-    in.backtest = data.backtest;
-    in.models = data.models;
+    if (!data.results) {
+        in.report = data.results.error();
+        return report::writePdf(report::buildReport(in), pdfPath);
+    }
+    const WorkbookResults &results = data.results.value();
+    in.report = results.report;
+    // The backtest is reported when the workbook sets one (its settings are part of the analysis).
+    if (data.contents.backtest) {
+        report::BacktestPart part;
+        part.testSize = results.backtestSettings.testSize;
+        if (results.backtest)
+            part.main = *results.backtest;
+        else
+            part.main = problem(ErrorKind::InsufficientData, results.backtestProblem);
+        part.others = data.otherBacktests;
+        in.backtest = std::move(part);
+    }
+    if (results.models)
+        in.models = Result<std::vector<ModelRow>>(*results.models);
+    else
+        in.models = Result<std::vector<ModelRow>>(problem(ErrorKind::Numerical, results.modelsProblem));
+    in.charts.lossTail = figureFor(ChartKind::LossTail, results);
+    in.charts.tradeoff = figureFor(ChartKind::Tradeoff, results);
+    in.charts.contributions = figureFor(ChartKind::Contributions, results);
+    in.charts.backtest = figureFor(ChartKind::Backtest, results);
+    in.charts.models = figureFor(ChartKind::Models, results);
     return report::writePdf(report::buildReport(in), pdfPath);
 }
 

@@ -20,6 +20,7 @@ constexpr double kMarginSideMm = 20.0;
 constexpr double kMarginTopMm = 24.0;    // the header sits inside it
 constexpr double kMarginBottomMm = 22.0; // the footer sits inside it
 constexpr int kRowsWithHeader = 2;       // a table's header never goes without this many rows
+constexpr double kFigureShrinkTo = 0.8;  // a figure may be drawn down to this share of its size
 
 template <class... Ts>
 struct Overloaded : Ts... {
@@ -96,11 +97,28 @@ private:
     // What must fit below a heading so that it is not left alone: the start of the next block.
     double leadHeight(std::size_t index) const;
 
+    // A paragraph right before a table introduces it: what of the table must come with it.
+    double introducedLead(std::size_t paragraph) const
+    {
+        const std::size_t next = paragraph + 1;
+        return next < m_doc.blocks.size() && std::holds_alternative<Table>(m_doc.blocks[next]) ? leadHeight(next) : 0.0;
+    }
+
     // Tables
     std::vector<double> columnWidths(const Table &table) const;
     double rowHeight(const Table &table, const QStringList &row, bool bold) const;
     double headerHeight(const Table &table) const;
     double cellPad() const { return pt(2.6); }
+
+    double tableHeight(const Table &table) const
+    {
+        double h = headerHeight(table);
+        for (const QStringList &row : table.rows)
+            h += rowHeight(table, row, false);
+        return h;
+    }
+    // A short table (up to a third of a page) is kept whole: split, it would be hard to read.
+    bool keepWhole(const Table &table) const { return tableHeight(table) <= m_body.height() / 3.0; }
 
     void newPage()
     {
@@ -210,6 +228,8 @@ double Layout::leadHeight(std::size_t index) const
         return 0.0;
     const Block &next = m_doc.blocks[index];
     if (const auto *t = std::get_if<Table>(&next)) {
+        if (keepWhole(*t))
+            return spaceBefore(next) + tableHeight(*t);
         double h = headerHeight(*t);
         for (int i = 0; i < std::min<int>(kRowsWithHeader, static_cast<int>(t->rows.size())); ++i)
             h += rowHeight(*t, t->rows[static_cast<std::size_t>(i)], false);
@@ -219,8 +239,9 @@ double Layout::leadHeight(std::size_t index) const
         // A heading followed by a subheading keeps both with the start of what comes after.
         if (t->style == TextStyle::Heading || t->style == TextStyle::Subheading)
             return spaceBefore(next) + height(next) + spaceAfter(next) + leadHeight(index + 1);
-        // Paragraphs are kept whole, so the heading goes with all of it.
-        return spaceBefore(next) + height(next);
+        // Paragraphs are kept whole, so the heading goes with all of it — and with the start of
+        // a table the paragraph introduces.
+        return spaceBefore(next) + height(next) + spaceAfter(next) + introducedLead(index);
     }
     return spaceBefore(next) + height(next);
 }
@@ -241,6 +262,8 @@ void Layout::flow()
             const int n = static_cast<int>(table->rows.size());
             int row = 0;
             bool continued = false;
+            if (keepWhole(*table) && tableHeight(*table) > room() && !atTop())
+                newPage();
             while (row < n || (n == 0 && row == 0)) {
                 double h = headerHeight(*table);
                 int end = row;
@@ -268,10 +291,25 @@ void Layout::flow()
             continue;
         }
         const double before = atTop() ? 0.0 : spaceBefore(block);
+        if (std::holds_alternative<Figure>(block)) {
+            // A figure a little taller than what is left is drawn a little smaller rather than
+            // leaving the rest of the page empty.
+            const double full = height(block);
+            double h = full;
+            if (full > room() && room() >= kFigureShrinkTo * full)
+                h = room();
+            else if (full > room())
+                newPage();
+            m_pages.back().push_back({i, m_y, h, 0, 0, false});
+            m_y += h + spaceAfter(block);
+            continue;
+        }
         double needed = before + height(block);
         if (const auto *t = std::get_if<Text>(&block);
             t && (t->style == TextStyle::Heading || t->style == TextStyle::Subheading))
             needed += spaceAfter(block) + leadHeight(i + 1);
+        else if (t)
+            needed += spaceAfter(block) + introducedLead(i);
         if (needed > room() && !atTop())
             newPage();
         m_y += atTop() ? 0.0 : spaceBefore(block);
@@ -419,7 +457,10 @@ void Layout::paintPiece(QPainter &painter, const Piece &piece) const
                        if (!f.paint)
                            return;
                        painter.save();
-                       const QRectF area(m_body.left(), piece.y, m_body.width(), piece.height);
+                       // Drawn smaller to fit (flow()), a figure keeps its shape and is centred.
+                       const double full = height(block);
+                       const double width = m_body.width() * std::min(1.0, piece.height / full);
+                       const QRectF area(m_body.left() + (m_body.width() - width) / 2, piece.y, width, piece.height);
                        painter.setClipRect(area);
                        f.paint(painter, area);
                        painter.restore();

@@ -1,0 +1,62 @@
+#include "rendercommand.h"
+
+#include "guiapplication.h"
+#include "renderoptions.h"
+#include "workbookinput.h"
+
+#include "export/captions.h"
+#include "export/chartrender.h"
+#include "export/workbookresults.h"
+
+#include <QApplication>
+#include <QFile>
+
+#include <cstdio>
+
+namespace tailwise::cli {
+
+namespace {
+
+constexpr int exitOk = 0;
+constexpr int exitBadInput = 1;
+constexpr int exitUsage = 2;
+
+int fail(int code, const std::string &message)
+{
+    std::fprintf(stderr, "tailwise-cli: %s\n", message.c_str());
+    return code;
+}
+
+} // namespace
+
+int runRenderCommand(const std::vector<std::string> &args)
+{
+    auto parsed = parseRenderOptions(args);
+    if (!parsed)
+        return fail(exitUsage, parsed.error().message);
+    RenderOptions options = std::move(parsed).value();
+    if (options.help) {
+        std::fputs(renderHelpText().c_str(), stdout);
+        return exitOk;
+    }
+    auto contents = readWorkbookInput(options.workbookPath);
+    if (!contents)
+        return fail(exitBadInput, contents.error().message);
+    auto results = ui::computeWorkbookResults(contents.value());
+    if (!results)
+        return fail(exitBadInput, options.workbookPath + ": " + results.error().message);
+
+    // Only now, with something to draw: the charts are widgets and need the application.
+    const auto app = makeGuiApplication();
+    ui::ChartExportSettings &s = options.settings;
+    if (options.caption)
+        s.print.caption = QString::fromStdString(*options.caption);
+    else if (!options.noCaption)
+        s.print.caption = ui::captionFor(s.kind, results.value());
+    const auto written = ui::writeChart(QFile::decodeName(options.outPath.c_str()), s, results.value());
+    if (!written)
+        return fail(exitBadInput, written.error().message);
+    return exitOk;
+}
+
+} // namespace tailwise::cli

@@ -1,0 +1,461 @@
+#include "export/chartrender.h"
+
+#include "charts/backtestchart.h"
+#include "charts/chartstyle.h"
+#include "charts/contributionschart.h"
+#include "charts/losstailchart.h"
+#include "charts/modelcomparisonchart.h"
+#include "charts/tradeoffchart.h"
+
+#include <qcustomplot.h>
+
+#include <QBuffer>
+#include <QCoreApplication>
+#include <QFileInfo>
+#include <QFontMetricsF>
+#include <QPageSize>
+#include <QPainter>
+#include <QPdfWriter>
+#include <QPicture>
+#include <QRegularExpression>
+#include <QSaveFile>
+#include <QSvgGenerator>
+
+#include <algorithm>
+#include <cmath>
+#include <memory>
+#include <vector>
+
+namespace tailwise::ui {
+
+namespace {
+
+QString tr(const char *text) { return QCoreApplication::translate("ChartExport", text); }
+
+// Canvas units per inch: the screen pixel the charts' pens, marks and paddings were made for.
+constexpr double canvasPerInch = 96.0;
+constexpr double mmPerInch = 25.4;
+
+double canvasUnits(double mm) { return mm / mmPerInch * canvasPerInch; }
+int pixelsOfPoints(double points) { return std::max(1, static_cast<int>(std::lround(points * canvasPerInch / 72.0))); }
+
+// The fonts of one picture, in canvas pixels (pixel sizes keep text the same size on every device).
+struct PrintFonts {
+    int label = 11;
+    double screenLabelPoints = 9.0; // the screen's label size, to keep the charts' relative sizes
+    QFont scaled(const QFont &screen) const
+    {
+        QFont f = screen;
+        const double ratio = screen.pointSizeF() > 0.0 ? screen.pointSizeF() / screenLabelPoints
+                                                      : screen.pixelSize() / (screenLabelPoints * 96.0 / 72.0);
+        f.setPixelSize(std::max(6, static_cast<int>(std::lround(label * ratio))));
+        return f;
+    }
+    QFont labelFont() const { return scaled(chartstyle::labelFont()); }
+    QFont noteFont() const { return scaled(chartstyle::noteFont()); }
+};
+
+PrintFonts fontsFor(const QSizeF &sizeMm)
+{
+    PrintFonts fonts;
+    fonts.label = pixelsOfPoints(printLabelPoints(sizeMm));
+    fonts.screenLabelPoints = std::max(1.0, chartstyle::labelFont().pointSizeF());
+    return fonts;
+}
+
+QString withCurrency(QString label, const QString &currency)
+{
+    // The charts say "money" on their money axes: they do not know the currency. On paper the
+    // reader should see it, so the word is replaced when the exporter was told the currency.
+    if (currency.isEmpty())
+        return label;
+    static const QRegularExpression word(QStringLiteral("\\bmoney\\b"));
+    return label.replace(word, currency);
+}
+
+void styleAxisForPrint(QCPAxis *axis, const PrintFonts &fonts, const QString &currency)
+{
+    axis->setLabelFont(fonts.scaled(axis->labelFont()));
+    axis->setTickLabelFont(fonts.scaled(axis->tickLabelFont()));
+    axis->setLabel(withCurrency(axis->label(), currency));
+    axis->setSelectedParts(QCPAxis::spNone);
+}
+
+// Over the chart's own style: print fonts, the currency, nothing selected, no click hints.
+void applyPrintStyle(QCustomPlot *plot, const PrintFonts &fonts, const QString &currency)
+{
+    plot->setBackground(Qt::white);
+    plot->deselectAll();
+    for (QCPAxisRect *rect : plot->axisRects())
+        for (QCPAxis *axis : rect->axes())
+            styleAxisForPrint(axis, fonts, currency);
+    for (QCPLayoutElement *element : plot->plotLayout()->elements(true)) {
+        if (auto *scale = qobject_cast<QCPColorScale *>(element))
+            styleAxisForPrint(scale->axis(), fonts, currency);
+        if (auto *text = qobject_cast<QCPTextElement *>(element)) {
+            text->setFont(fonts.scaled(text->font()));
+            // The map's title invites a click; paper cannot be clicked.
+            if (text->text() == TradeoffChart::tr("VaR over horizon and confidence (click to use a point)"))
+                text->setText(TradeoffChart::tr("VaR over horizon and confidence"));
+        }
+    }
+    // (QCPLegend::setFont passes the font on to the items it holds.)
+    plot->legend->setFont(fonts.scaled(plot->legend->font()));
+    for (int i = 0; i < plot->itemCount(); ++i)
+        if (auto *text = qobject_cast<QCPItemText *>(plot->item(i)))
+            text->setFont(fonts.scaled(text->font()));
+}
+
+// One plot of a picture and where it goes on the canvas.
+struct Pane {
+    QCustomPlot *plot = nullptr;
+    QRectF rect;
+};
+
+// The chart widgets of one picture, never shown: they live while the picture is painted.
+struct PrintCharts {
+    std::unique_ptr<QWidget> host = std::make_unique<QWidget>();
+    std::vector<Pane> panes;
+    QString note; // the chart's own note (shown above it on screen)
+};
+
+void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &results, const ChartPrintOptions &options,
+                const QRectF &area)
+{
+    QWidget *host = charts.host.get();
+    switch (kind) {
+    case ChartKind::LossTail: {
+        auto *chart = new LossTailChart(host);
+        if (options.lossTailUnit == LossTailUnit::Money) {
+            chart->setData(results.lossTail);
+        } else {
+            LossTailOptions o;
+            o.unit = options.lossTailUnit;
+            chart->setData(buildLossTailChartData(results.report, o));
+        }
+        chart->clearPointer();
+        charts.note = chart->data().note;
+        charts.panes.push_back({chart->plot(), area});
+        break;
+    }
+    case ChartKind::Tradeoff: {
+        auto *chart = new TradeoffChart(host);
+        chart->setData(results.tradeoff);
+        charts.note = results.tradeoff.note;
+        const double gap = canvasUnits(3.0);
+        if (area.width() < area.height() * 1.1) {
+            // Tall: the three pictures stacked, the map with the most room.
+            const double h = (area.height() - 2.0 * gap) / 4.0;
+            charts.panes.push_back({chart->horizonPlot(), QRectF(area.left(), area.top(), area.width(), h)});
+            charts.panes.push_back({chart->confidencePlot(), QRectF(area.left(), area.top() + h + gap, area.width(), h)});
+            charts.panes.push_back({chart->mapPlot(), QRectF(area.left(), area.top() + 2.0 * (h + gap), area.width(), 2.0 * h)});
+        } else {
+            // Wide: as on screen, the two lines on the left, the map on the right.
+            const double left = (area.width() - gap) * 10.0 / 23.0;
+            const double h = (area.height() - gap) / 2.0;
+            charts.panes.push_back({chart->horizonPlot(), QRectF(area.left(), area.top(), left, h)});
+            charts.panes.push_back({chart->confidencePlot(), QRectF(area.left(), area.top() + h + gap, left, h)});
+            charts.panes.push_back({chart->mapPlot(), QRectF(area.left() + left + gap, area.top(), area.width() - left - gap, area.height())});
+        }
+        break;
+    }
+    case ChartKind::Contributions: {
+        auto *chart = new ContributionsChart(host);
+        chart->setData(results.contributions);
+        charts.panes.push_back({chart->plot(), area});
+        break;
+    }
+    case ChartKind::Backtest: {
+        auto *chart = new BacktestChart(host);
+        chart->setData(*results.backtestChart);
+        charts.note = results.backtestChart->note;
+        charts.panes.push_back({chart->plot(), area});
+        break;
+    }
+    case ChartKind::Models: {
+        auto *chart = new ModelComparisonChart(host);
+        chart->setData(*results.modelsChart);
+        charts.note = results.modelsChart->note;
+        charts.panes.push_back({chart->plot(), area});
+        break;
+    }
+    }
+}
+
+// QCustomPlot paints through its own QCPPainter; a QPicture carries those commands (text as
+// text, lines as lines) onto whatever painter the caller has, already scaled.
+void paintPane(QPainter &painter, const Pane &pane, const PrintFonts &fonts, const QString &currency)
+{
+    applyPrintStyle(pane.plot, fonts, currency);
+    const int w = std::max(1, static_cast<int>(std::lround(pane.rect.width())));
+    const int h = std::max(1, static_cast<int>(std::lround(pane.rect.height())));
+    QPicture picture;
+    {
+        QCPPainter qcp(&picture);
+        // Vectorised: pens keep their width under the scaling; no cached label pixmaps.
+        qcp.setMode(QCPPainter::pmVectorized);
+        qcp.setMode(QCPPainter::pmNoCaching);
+        pane.plot->toPainter(&qcp, w, h);
+    }
+    painter.save();
+    painter.translate(pane.rect.topLeft());
+    painter.setClipRect(QRectF(0, 0, w, h), Qt::IntersectClip);
+    // Playing a picture scales it from the picture's resolution to the device's; the canvas is
+    // already scaled onto the device, so that step is undone here.
+    if (const QPaintDevice *device = painter.device(); device && device->logicalDpiX() > 0 && device->logicalDpiY() > 0)
+        painter.scale(double(picture.logicalDpiX()) / device->logicalDpiX(), double(picture.logicalDpiY()) / device->logicalDpiY());
+    painter.drawPicture(QPointF(0, 0), picture);
+    painter.restore();
+}
+
+} // namespace
+
+QString exportFormatName(ExportFormat format)
+{
+    switch (format) {
+    case ExportFormat::Png: return QStringLiteral("png");
+    case ExportFormat::Svg: return QStringLiteral("svg");
+    case ExportFormat::Pdf: return QStringLiteral("pdf");
+    }
+    return {};
+}
+
+std::optional<ExportFormat> parseExportFormat(const QString &name)
+{
+    for (const ExportFormat f : {ExportFormat::Png, ExportFormat::Svg, ExportFormat::Pdf})
+        if (name.compare(exportFormatName(f), Qt::CaseInsensitive) == 0)
+            return f;
+    return std::nullopt;
+}
+
+std::optional<ExportFormat> exportFormatForPath(const QString &path)
+{
+    return parseExportFormat(QFileInfo(path).suffix());
+}
+
+QString sizePresetName(SizePreset preset)
+{
+    switch (preset) {
+    case SizePreset::Column: return QStringLiteral("column");
+    case SizePreset::HalfPage: return QStringLiteral("half-page");
+    case SizePreset::FullPage: return QStringLiteral("full-page");
+    case SizePreset::Slide: return QStringLiteral("slide");
+    }
+    return {};
+}
+
+std::optional<SizePreset> parseSizePreset(const QString &name)
+{
+    for (const SizePreset p : allSizePresets)
+        if (sizePresetName(p) == name)
+            return p;
+    return std::nullopt;
+}
+
+QSizeF sizePresetMm(SizePreset preset)
+{
+    switch (preset) {
+    case SizePreset::Column: return {85.0, 60.0};
+    case SizePreset::HalfPage: return {170.0, 110.0};
+    case SizePreset::FullPage: return {170.0, 230.0};
+    case SizePreset::Slide: return {254.0, 143.0};
+    }
+    return {170.0, 110.0};
+}
+
+QString sizePresetTitle(SizePreset preset)
+{
+    const QSizeF mm = sizePresetMm(preset);
+    const QString size = tr("%1 × %2 mm").arg(QLocale().toString(mm.width()), QLocale().toString(mm.height()));
+    switch (preset) {
+    case SizePreset::Column: return tr("A letter's column (%1)").arg(size);
+    case SizePreset::HalfPage: return tr("Half a page (%1)").arg(size);
+    case SizePreset::FullPage: return tr("A full page (%1)").arg(size);
+    case SizePreset::Slide: return tr("A 16:9 slide (%1)").arg(size);
+    }
+    return size;
+}
+
+double printLabelPoints(const QSizeF &sizeMm)
+{
+    // About 8 pt in a column, 10.5 pt on half a page, 12 pt on a slide (read from further away).
+    return std::clamp(5.5 + 0.03 * sizeMm.width(), 7.5, 12.0);
+}
+
+QSize exportPixelSize(const QSizeF &sizeMm, int dpi)
+{
+    return QSize(static_cast<int>(std::lround(sizeMm.width() / mmPerInch * dpi)),
+                 static_cast<int>(std::lround(sizeMm.height() / mmPerInch * dpi)));
+}
+
+QString chartUnavailableReason(ChartKind kind, const WorkbookResults &results)
+{
+    if (kind == ChartKind::Backtest && !results.backtestChart)
+        return tr("No backtest chart: %1").arg(results.backtestProblem);
+    if (kind == ChartKind::Models && !results.modelsChart)
+        return tr("No model comparison chart: %1").arg(results.modelsProblem);
+    return {};
+}
+
+void paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const WorkbookResults &results,
+                const ChartPrintOptions &options)
+{
+    const QSizeF canvas(canvasUnits(options.sizeMm.width()), canvasUnits(options.sizeMm.height()));
+    if (target.isEmpty() || canvas.isEmpty())
+        return;
+    const PrintFonts fonts = fontsFor(options.sizeMm);
+    painter.save();
+    painter.translate(target.topLeft());
+    painter.scale(target.width() / canvas.width(), target.height() / canvas.height());
+    painter.setRenderHint(QPainter::Antialiasing);
+    painter.setRenderHint(QPainter::TextAntialiasing);
+    painter.fillRect(QRectF(QPointF(0, 0), canvas), Qt::white);
+
+    const double margin = canvasUnits(1.5);
+    QRectF area(margin, margin, canvas.width() - 2.0 * margin, canvas.height() - 2.0 * margin);
+    const QString caption = options.caption.trimmed();
+    if (!caption.isEmpty()) {
+        // The caption takes what it needs at the bottom; the chart keeps at least half the height.
+        const QFont font = fonts.labelFont();
+        const QRectF needed = QFontMetricsF(font).boundingRect(QRectF(0, 0, area.width(), 1e6),
+                                                               Qt::TextWordWrap | Qt::AlignLeft, caption);
+        const double h = std::min(needed.height(), area.height() / 2.0);
+        const QRectF box(area.left(), area.bottom() - h, area.width(), h);
+        painter.setFont(font);
+        painter.setPen(chartstyle::ink());
+        painter.drawText(box, Qt::TextWordWrap | Qt::AlignLeft | Qt::AlignTop, caption);
+        area.setBottom(box.top() - canvasUnits(2.0));
+    }
+
+    const QString unavailable = chartUnavailableReason(kind, results);
+    if (!unavailable.isEmpty()) {
+        painter.setFont(fonts.noteFont());
+        painter.setPen(chartstyle::ink());
+        painter.drawText(area, Qt::TextWordWrap | Qt::AlignCenter, unavailable);
+        painter.restore();
+        return;
+    }
+
+    PrintCharts charts;
+    // The note first, so its height is known before the charts are laid out.
+    buildPanes(charts, kind, results, options, area);
+    if (!charts.note.isEmpty()) {
+        const QFont font = fonts.noteFont();
+        const QRectF needed = QFontMetricsF(font).boundingRect(QRectF(0, 0, area.width(), 1e6),
+                                                               Qt::TextWordWrap | Qt::AlignLeft, charts.note);
+        painter.setFont(font);
+        painter.setPen(chartstyle::ink());
+        painter.drawText(QRectF(area.left(), area.top(), area.width(), needed.height()),
+                         Qt::TextWordWrap | Qt::AlignLeft | Qt::AlignTop, charts.note);
+        area.setTop(area.top() + needed.height() + canvasUnits(1.0));
+        charts = PrintCharts{};
+        buildPanes(charts, kind, results, options, area);
+    }
+    for (const Pane &pane : charts.panes)
+        paintPane(painter, pane, fonts, options.currency);
+    painter.restore();
+}
+
+tailwise::Status checkExportSettings(const ChartExportSettings &settings)
+{
+    const auto within = [](double mm) { return std::isfinite(mm) && mm >= minExportMm && mm <= maxExportMm; };
+    const QString range = tr("expected a size from %1 to %2 mm").arg(minExportMm).arg(maxExportMm);
+    if (!within(settings.print.sizeMm.width()))
+        return fieldError(ErrorKind::Assumption, "width-mm", range.toStdString());
+    if (!within(settings.print.sizeMm.height()))
+        return fieldError(ErrorKind::Assumption, "height-mm", range.toStdString());
+    if (settings.dpi < 50 || settings.dpi > 1200)
+        return fieldError(ErrorKind::Assumption, "dpi", "expected a resolution from 50 to 1200 dots per inch");
+    return Done{};
+}
+
+QImage renderChartImage(ChartKind kind, const WorkbookResults &results, const ChartPrintOptions &options, int dpi)
+{
+    const QSize pixels = exportPixelSize(options.sizeMm, dpi);
+    QImage image(pixels, QImage::Format_ARGB32_Premultiplied);
+    image.fill(Qt::white);
+    // The resolution travels in the PNG (pHYs), so the picture prints at the size asked for.
+    const int dotsPerMeter = static_cast<int>(std::lround(dpi / 0.0254));
+    image.setDotsPerMeterX(dotsPerMeter);
+    image.setDotsPerMeterY(dotsPerMeter);
+    QPainter painter(&image);
+    paintChart(painter, QRectF(QPointF(0, 0), QSizeF(pixels)), kind, results, options);
+    painter.end();
+    return image;
+}
+
+tailwise::Status writeChart(QIODevice &device, const ChartExportSettings &settings, const WorkbookResults &results)
+{
+    if (auto ok = checkExportSettings(settings); !ok)
+        return ok;
+    const QString unavailable = chartUnavailableReason(settings.kind, results);
+    if (!unavailable.isEmpty())
+        return fieldError(ErrorKind::Value, "chart", unavailable.toStdString());
+    const QSizeF mm = settings.print.sizeMm;
+    const QString title = results.title.isEmpty() ? chartKindTitle(settings.kind)
+                                                  : tr("%1 — %2").arg(chartKindTitle(settings.kind), results.title);
+    bool written = false;
+    switch (settings.format) {
+    case ExportFormat::Png: {
+        const QImage image = renderChartImage(settings.kind, results, settings.print, settings.dpi);
+        written = image.save(&device, "PNG");
+        break;
+    }
+    case ExportFormat::Svg: {
+        QSvgGenerator svg;
+        svg.setOutputDevice(&device);
+        const QSize units(static_cast<int>(std::lround(canvasUnits(mm.width()))),
+                          static_cast<int>(std::lround(canvasUnits(mm.height()))));
+        svg.setResolution(static_cast<int>(canvasPerInch)); // so width and height come out in mm
+        svg.setSize(units);
+        svg.setViewBox(QRectF(QPointF(0, 0), QSizeF(units)));
+        svg.setTitle(title);
+        svg.setDescription(settings.print.caption);
+        QPainter painter;
+        if (painter.begin(&svg)) {
+            paintChart(painter, QRectF(QPointF(0, 0), QSizeF(units)), settings.kind, results, settings.print);
+            written = painter.end();
+        }
+        break;
+    }
+    case ExportFormat::Pdf: {
+        QPdfWriter pdf(&device);
+        pdf.setPageSize(QPageSize(mm, QPageSize::Millimeter, QString(), QPageSize::ExactMatch));
+        pdf.setPageMargins(QMarginsF(0, 0, 0, 0));
+        pdf.setResolution(1200);
+        pdf.setTitle(title);
+        pdf.setCreator(QStringLiteral("Tailwise"));
+        QPainter painter;
+        if (painter.begin(&pdf)) {
+            paintChart(painter, QRectF(0, 0, pdf.width(), pdf.height()), settings.kind, results, settings.print);
+            written = painter.end();
+        }
+        break;
+    }
+    }
+    if (!written)
+        return fieldError(ErrorKind::FileUnreadable, "out", "the picture could not be written");
+    return Done{};
+}
+
+tailwise::Status writeChart(const QString &path, const ChartExportSettings &settings, const WorkbookResults &results)
+{
+    if (auto ok = checkExportSettings(settings); !ok)
+        return ok;
+    QSaveFile file(path);
+    const std::string name = path.toStdString();
+    if (!file.open(QIODevice::WriteOnly))
+        return fileError(ErrorKind::FileUnreadable, name, 0, 0, "cannot write: " + file.errorString().toStdString());
+    auto status = writeChart(file, settings, results);
+    if (!status) {
+        file.cancelWriting();
+        if (status.error().kind == ErrorKind::FileUnreadable)
+            return fileError(ErrorKind::FileUnreadable, name, 0, 0, "cannot write the picture: " + file.errorString().toStdString());
+        return status;
+    }
+    if (!file.commit())
+        return fileError(ErrorKind::FileUnreadable, name, 0, 0, "cannot write: " + file.errorString().toStdString());
+    return Done{};
+}
+
+} // namespace tailwise::ui
