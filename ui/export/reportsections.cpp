@@ -123,7 +123,7 @@ void addHeadline(Document &doc, const RiskReport &r)
                                  + tr("net market value")});
     doc.add(figures);
     doc.add(TextStyle::Body, HeadlinePanel::sentence(r));
-    doc.add(TextStyle::Body, tr("Model: %1.").arg(modelDetail(r)));
+    doc.add(TextStyle::Body, tr("Model: %1. %2").arg(modelDetail(r), modelDescription(r.model.used)));
     if (r.model.varStandardError && std::isfinite(*r.model.varStandardError))
         doc.add(TextStyle::Body, tr("The simulation's standard error is %1 on VaR and %2 on ES: a second run with "
                                     "another seed would differ by about that much.")

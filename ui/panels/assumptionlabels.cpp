@@ -35,6 +35,21 @@ QString modelLabel(RiskModel model)
     return {};
 }
 
+QString modelDescription(RiskModel model)
+{
+    switch (model) {
+    case RiskModel::Normal: return tr("P&L taken as normally distributed with the estimated mean and covariance.");
+    case RiskModel::StudentT:
+        return tr("Like normal, but with fatter tails fitted to the data: large losses are more likely.");
+    case RiskModel::CornishFisher: return tr("Normal corrected for the skew and fat tails seen in the window.");
+    case RiskModel::Historical:
+        return tr("Replays the window's actual daily moves on today's holdings; no distribution assumed.");
+    case RiskModel::MonteCarlo:
+        return tr("Draws many random scenarios from the estimated model.");
+    }
+    return {};
+}
+
 QString historicalHorizonLabel(HistoricalHorizon horizon)
 {
     return horizon == HistoricalHorizon::Overlapping

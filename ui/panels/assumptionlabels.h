@@ -12,6 +12,8 @@ QString returnTypeLabel(tailwise::ReturnType returns);
 QString estimatorLabel(tailwise::CovarianceEstimator estimator);
 QString meanLabel(tailwise::MeanModel mean);
 QString modelLabel(tailwise::RiskModel model);
+// One sentence on what the model assumes ("Replays the window's actual daily moves …").
+QString modelDescription(tailwise::RiskModel model);
 QString historicalHorizonLabel(tailwise::HistoricalHorizon horizon);
 
 } // namespace tailwise::ui

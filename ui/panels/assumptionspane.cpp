@@ -41,23 +41,7 @@ QLabel *sectionTitle(const QString &text, QWidget *parent)
 }
 
 // Models the core knows, by their file names; the list follows the core as models are added.
-struct ModelChoice {
-    const char *name;
-    const char *label;
-    const char *tip;
-};
-const ModelChoice kModels[] = {
-    {"normal", QT_TRANSLATE_NOOP("AssumptionsPane", "Normal"),
-     QT_TRANSLATE_NOOP("AssumptionsPane", "P&L taken as normally distributed with the estimated mean and covariance.")},
-    {"student-t", QT_TRANSLATE_NOOP("AssumptionsPane", "Student-t"),
-     QT_TRANSLATE_NOOP("AssumptionsPane", "Like normal, but with fatter tails fitted to the data: large losses are more likely.")},
-    {"cornish-fisher", QT_TRANSLATE_NOOP("AssumptionsPane", "Cornish–Fisher"),
-     QT_TRANSLATE_NOOP("AssumptionsPane", "Normal corrected for the skew and fat tails seen in the window.")},
-    {"historical", QT_TRANSLATE_NOOP("AssumptionsPane", "Historical"),
-     QT_TRANSLATE_NOOP("AssumptionsPane", "Replays the window's actual daily moves on today's holdings; no distribution assumed.")},
-    {"monte-carlo", QT_TRANSLATE_NOOP("AssumptionsPane", "Monte Carlo"),
-     QT_TRANSLATE_NOOP("AssumptionsPane", "Draws many random scenarios from the estimated model; runs in the background.")},
-};
+const char *const kModels[] = {"normal", "student-t", "cornish-fisher", "historical", "monte-carlo"};
 
 } // namespace
 
@@ -192,10 +176,12 @@ void AssumptionsPane::buildWidgets()
                           "average. An estimated gain lowers VaR, more so at long horizons."));
     form->addRow(tr("Expected gain"), m_mean);
     m_model = new QComboBox(this);
-    for (const ModelChoice &m : kModels) {
-        if (const auto model = parseRiskModel(m.name)) {
-            m_model->addItem(tr(m.label), int(*model));
-            m_model->setItemData(m_model->count() - 1, tr(m.tip), Qt::ToolTipRole);
+    for (const char *name : kModels) {
+        if (const auto model = parseRiskModel(name)) {
+            m_model->addItem(modelLabel(*model), int(*model));
+            const QString tip = modelDescription(*model)
+                                + (*model == RiskModel::MonteCarlo ? tr(" It runs in the background.") : QString());
+            m_model->setItemData(m_model->count() - 1, tip, Qt::ToolTipRole);
         }
     }
     m_model->setToolTip(tr("The model that turns the estimates into a loss distribution."));
