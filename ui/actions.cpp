@@ -19,6 +19,10 @@ Actions::Actions(QUndoStack *undoStack, QObject *parent) : QObject(parent)
     make(ImportPrices, tr("Import &Price History…"), tr("Read daily prices from a CSV file (date, then one column per asset)"));
     make(ImportHoldings, tr("Import &Holdings…"), tr("Read holdings from a CSV file (asset, quantity, optional price)"));
     make(ExportHoldings, tr("&Export Holdings…"), tr("Write the holdings to a CSV file"));
+    make(ExportChart, tr("Export &Chart…"), tr("Write the chart in view to a PNG, SVG or PDF file, with a caption"));
+    get(ExportChart)->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_E));
+    make(CopyChart, tr("Cop&y Chart"), tr("Put the chart in view on the clipboard, with its caption"));
+    get(CopyChart)->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_C));
     make(ExportReport, tr("Export &Report…"),
          tr("Write a PDF report of the workbook: figures, charts, backtest, assumptions and cautions"));
     get(ExportReport)->setShortcut(QKeySequence(tr("Ctrl+Shift+R")));
@@ -69,6 +73,7 @@ void Actions::buildMenus(QMainWindow *window)
     file->addAction(get(ImportPrices));
     file->addAction(get(ImportHoldings));
     file->addAction(get(ExportHoldings));
+    file->addAction(get(ExportChart));
     file->addSeparator();
     file->addAction(get(ExportReport));
     file->addSeparator();
@@ -82,6 +87,7 @@ void Actions::buildMenus(QMainWindow *window)
     edit->addAction(get(DuplicateHolding));
     edit->addAction(get(RemoveHolding));
     edit->addAction(get(Paste));
+    edit->addAction(get(CopyChart));
 
     QMenu *help = bar->addMenu(tr("&Help"));
     help->addAction(get(About));

@@ -26,6 +26,8 @@ public:
         ImportPrices,
         ImportHoldings,
         ExportHoldings,
+        ExportChart,
+        CopyChart,
         ExportReport,
         Quit,
         Undo,

@@ -5,6 +5,7 @@
 #include "document/recomputescheduler.h"
 #include "document/workbook.h"
 #include "document/workbookfile.h"
+#include "export/chartexporter.h"
 #include "export/reportjob.h"
 #include "panels/assumptionspane.h"
 #include "panels/cautionsnote.h"
@@ -84,6 +85,10 @@ void MainWindow::buildLayout()
 
     m_headline = new HeadlinePanel(*m_workbook);
     m_charts = new ChartTabs(*m_workbook);
+    m_charts->setChartActions(m_actions->get(Actions::ExportChart), m_actions->get(Actions::CopyChart));
+    m_chartExporter = new ChartExporter(*m_workbook, *m_charts, this);
+    connect(m_chartExporter, &ChartExporter::statusMessage, this,
+            [this](const QString &text) { statusBar()->showMessage(text, kStatusTimeoutMs); });
     m_holdings = new HoldingsEditor(*m_workbook);
     m_holdings->setRowActions({m_actions->get(Actions::AddHolding), m_actions->get(Actions::DuplicateHolding),
                                m_actions->get(Actions::RemoveHolding), m_actions->get(Actions::ImportHoldings),
@@ -160,6 +165,8 @@ void MainWindow::connectActions()
     connect(a.get(Actions::DuplicateHolding), &QAction::triggered, m_holdings, &HoldingsEditor::duplicateSelected);
     connect(a.get(Actions::Paste), &QAction::triggered, m_holdings, &HoldingsEditor::pasteFromClipboard);
     connect(a.get(Actions::About), &QAction::triggered, this, &MainWindow::showAbout);
+    connect(a.get(Actions::ExportChart), &QAction::triggered, m_chartExporter, &ChartExporter::exportChart);
+    connect(a.get(Actions::CopyChart), &QAction::triggered, m_chartExporter, &ChartExporter::copyChart);
     connect(m_actions, &Actions::recentFileChosen, this, &MainWindow::openPath);
 }
 

@@ -17,6 +17,7 @@ namespace tailwise::ui {
 
 class Actions;
 class AssumptionsPane;
+class ChartExporter;
 class ChartTabs;
 class HeadlinePanel;
 class HoldingsEditor;
@@ -36,6 +37,7 @@ public:
     AssumptionsPane *assumptionsPane() const { return m_assumptions; }
     HeadlinePanel *headline() const { return m_headline; }
     ChartTabs *chartTabs() const { return m_charts; }
+    ChartExporter *chartExporter() const { return m_chartExporter; }
 
     // The file commands without dialogs (the menu commands ask for the path, then call these).
     // Each returns an empty string on success, or the reason nothing changed.
@@ -82,6 +84,7 @@ private:
     AssumptionsPane *m_assumptions = nullptr;
     HeadlinePanel *m_headline = nullptr;
     ChartTabs *m_charts = nullptr;
+    ChartExporter *m_chartExporter = nullptr;
     QSplitter *m_sideSplitter = nullptr;  // assumptions | the rest
     QSplitter *m_workSplitter = nullptr;  // charts over holdings
     QWidget *m_progress = nullptr;

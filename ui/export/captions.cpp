@@ -67,7 +67,7 @@ QString contributionsCaption(const WorkbookResults &w)
 {
     const RiskReport &r = w.report;
     const ContributionsChartData &d = w.contributions;
-    QString text = tr("Each holding's part of the %1 Value-at-Risk at %2 confidence, %3; the parts add up to it.")
+    QString text = tr("Each holding's part of the Value-at-Risk over %1 at %2 confidence, %3; the parts add up to it.")
                        .arg(daysText(r.assumptions.horizonDays), confidenceText(r.assumptions.confidence),
                             money(d.portfolioVar));
     if (!d.bars.empty() && d.bars.front().componentVar > 0.0) {
@@ -130,6 +130,10 @@ QString modelsCaption(const WorkbookResults &w)
     QString text = tr("Value-at-Risk and Expected Shortfall over %1 at %2 confidence under each model, for the same "
                       "holdings and data window.")
                        .arg(daysText(d.horizonDays), confidenceText(d.confidence));
+    for (const ModelComparisonGroup &g : d.groups)
+        if (g.current && g.hasFigures)
+            text += QLatin1Char(' ') + tr("Under the %1 model of the headline figures, VaR is %2 and ES %3.")
+                                           .arg(g.model, money(g.var), money(g.es));
     if (low && high)
         text += QLatin1Char(' ') + tr("VaR ranges from %1 (%2) to %3 (%4).")
                                        .arg(money(low->var), low->model, money(high->var), high->model);

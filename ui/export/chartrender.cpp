@@ -55,10 +55,10 @@ struct PrintFonts {
     QFont noteFont() const { return scaled(chartstyle::noteFont()); }
 };
 
-PrintFonts fontsFor(const QSizeF &sizeMm)
+PrintFonts fontsFor(const QSizeF &sizeMm, double factor = 1.0)
 {
     PrintFonts fonts;
-    fonts.label = pixelsOfPoints(printLabelPoints(sizeMm));
+    fonts.label = pixelsOfPoints(printLabelPoints(sizeMm) * factor);
     fonts.screenLabelPoints = std::max(1.0, chartstyle::labelFont().pointSizeF());
     return fonts;
 }
@@ -81,8 +81,28 @@ void styleAxisForPrint(QCPAxis *axis, const PrintFonts &fonts, const QString &cu
     axis->setSelectedParts(QCPAxis::spNone);
 }
 
-// Over the chart's own style: print fonts, the currency, nothing selected, no click hints.
-void applyPrintStyle(QCustomPlot *plot, const PrintFonts &fonts, const QString &currency)
+// The legend out of the plot area into a row under it, `columns` entries a row: on paper the
+// fonts are larger against the plot than on screen, and a legend inside would cover the marks.
+void moveLegendBelow(QCustomPlot *plot, int columns)
+{
+    QCPLegend *legend = plot->legend;
+    if (auto *inset = plot->axisRect()->insetLayout(); inset && inset->elements(false).contains(legend)) {
+        inset->take(legend);
+        inset->simplify();
+    }
+    auto *row = new QCPLayoutGrid;
+    const int at = plot->plotLayout()->rowCount();
+    plot->plotLayout()->addElement(at, 0, row);
+    row->setMargins(QMargins(5, 0, 5, 5));
+    row->addElement(0, 0, legend);
+    legend->setWrap(columns);
+    legend->setFillOrder(QCPLegend::foColumnsFirst, true); // re-flows the entries at the new wrap
+    plot->plotLayout()->setRowStretchFactor(at, 0.001);
+}
+
+// Over the chart's own style: print fonts, the currency, nothing selected, no click hints, and
+// no more number ticks than the width holds.
+void applyPrintStyle(QCustomPlot *plot, const QSizeF &pane, const PrintFonts &fonts, const QString &currency)
 {
     plot->setBackground(Qt::white);
     plot->deselectAll();
@@ -99,6 +119,26 @@ void applyPrintStyle(QCustomPlot *plot, const PrintFonts &fonts, const QString &
                 text->setText(TradeoffChart::tr("VaR over horizon and confidence"));
         }
     }
+    // About one number per 1.1 label widths of "1,500,000" along a horizontal axis.
+    const double labelWidth = QFontMetricsF(fonts.scaled(chartstyle::tickFont())).horizontalAdvance(QStringLiteral("-1,500,000"));
+    for (QCPAxisRect *rect : plot->axisRects()) {
+        QCPAxis *bottom = rect->axis(QCPAxis::atBottom);
+        if (bottom && bottom->ticker() && !bottom->ticker().dynamicCast<QCPAxisTickerText>()) {
+            const double share = plot->axisRects().size() > 1 ? 0.55 : 0.85;
+            bottom->ticker()->setTickCount(std::clamp(static_cast<int>(pane.width() * share / (1.1 * labelWidth)), 2, 6));
+        }
+    }
+    // A label along a vertical axis longer than the pane is high loses its ends; smaller, it fits.
+    const double room = pane.height() * (plot->axisRects().size() > 1 ? 0.5 : 0.7);
+    for (QCPAxisRect *rect : plot->axisRects())
+        for (QCPAxis *axis : {rect->axis(QCPAxis::atLeft), rect->axis(QCPAxis::atRight)}) {
+            if (!axis || axis->label().isEmpty())
+                continue;
+            QFont f = axis->labelFont();
+            while (f.pixelSize() > 7 && QFontMetricsF(f).horizontalAdvance(axis->label()) > room)
+                f.setPixelSize(f.pixelSize() - 1);
+            axis->setLabelFont(f);
+        }
     // (QCPLegend::setFont passes the font on to the items it holds.)
     plot->legend->setFont(fonts.scaled(plot->legend->font()));
     for (int i = 0; i < plot->itemCount(); ++i)
@@ -134,6 +174,8 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
             chart->setData(buildLossTailChartData(results.report, o));
         }
         chart->clearPointer();
+        // One entry a row: the entries are sentences that two columns would cut.
+        moveLegendBelow(chart->plot(), 1);
         charts.note = chart->data().note;
         charts.panes.push_back({chart->plot(), area});
         break;
@@ -162,12 +204,41 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
     case ChartKind::Contributions: {
         auto *chart = new ContributionsChart(host);
         chart->setData(results.contributions);
+        QCustomPlot *p = chart->plot();
+        // On paper: more room for the diversification step, room right of the longest bar for
+        // its label, and the step's sentence left to the caption, which says it in full.
+        p->plotLayout()->setColumnStretchFactors({1.6, 1.0});
+        if (QCPAxisRect *bars = p->axisRect(0)) {
+            QCPAxis *money = bars->axis(QCPAxis::atBottom);
+            const double span = money->range().size();
+            money->setRange(money->range().lower - (money->range().lower < 0.0 ? 0.3 * span : 0.0),
+                            money->range().upper + 0.2 * span);
+            // Under the bars, where it covers no hedge.
+            if (auto *inset = bars->insetLayout(); inset && inset->elements(false).contains(p->legend)) {
+                inset->take(p->legend);
+                inset->simplify();
+            }
+            auto *row = new QCPLayoutGrid;
+            const int at = p->plotLayout()->rowCount();
+            p->plotLayout()->addElement(at, 0, row);
+            row->setMargins(QMargins(5, 0, 5, 3));
+            row->addElement(0, 0, p->legend);
+            p->legend->setWrap(2);
+            p->legend->setFillOrder(QCPLegend::foColumnsFirst, true);
+            p->plotLayout()->setRowStretchFactor(at, 0.001);
+        }
+        for (int i = p->itemCount() - 1; i >= 0; --i)
+            if (auto *text = qobject_cast<QCPItemText *>(p->item(i)); text && text->text() == results.contributions.benefitText)
+                p->removeItem(text);
         charts.panes.push_back({chart->plot(), area});
         break;
     }
     case ChartKind::Backtest: {
         auto *chart = new BacktestChart(host);
         chart->setData(*results.backtestChart);
+        // Its legend is already under the plot, in one row; on paper it takes two.
+        chart->plot()->legend->setWrap(area.width() < canvasUnits(200.0) ? 2 : 3);
+        chart->plot()->legend->setFillOrder(QCPLegend::foColumnsFirst, true);
         charts.note = results.backtestChart->note;
         charts.panes.push_back({chart->plot(), area});
         break;
@@ -175,6 +246,7 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
     case ChartKind::Models: {
         auto *chart = new ModelComparisonChart(host);
         chart->setData(*results.modelsChart);
+        moveLegendBelow(chart->plot(), 2);
         charts.note = results.modelsChart->note;
         charts.panes.push_back({chart->plot(), area});
         break;
@@ -186,7 +258,7 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
 // text, lines as lines) onto whatever painter the caller has, already scaled.
 void paintPane(QPainter &painter, const Pane &pane, const PrintFonts &fonts, const QString &currency)
 {
-    applyPrintStyle(pane.plot, fonts, currency);
+    applyPrintStyle(pane.plot, pane.rect.size(), fonts, currency);
     const int w = std::max(1, static_cast<int>(std::lround(pane.rect.width())));
     const int h = std::max(1, static_cast<int>(std::lround(pane.rect.height())));
     QPicture picture;
@@ -278,8 +350,8 @@ QString sizePresetTitle(SizePreset preset)
 
 double printLabelPoints(const QSizeF &sizeMm)
 {
-    // About 8 pt in a column, 10.5 pt on half a page, 12 pt on a slide (read from further away).
-    return std::clamp(5.5 + 0.03 * sizeMm.width(), 7.5, 12.0);
+    // About 7.7 pt in a column, 9.4 pt on half a page, 11 pt on a slide (read from further away).
+    return std::clamp(6.0 + 0.02 * sizeMm.width(), 7.0, 11.0);
 }
 
 QSize exportPixelSize(const QSizeF &sizeMm, int dpi)
@@ -304,6 +376,10 @@ void paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const W
     if (target.isEmpty() || canvas.isEmpty())
         return;
     const PrintFonts fonts = fontsFor(options.sizeMm);
+    // The pictures with several panels or many labels get slightly smaller chart text.
+    const PrintFonts chartFonts = fontsFor(options.sizeMm, kind == ChartKind::Tradeoff        ? 0.85
+                                                           : kind == ChartKind::Contributions ? 0.9
+                                                                                              : 1.0);
     painter.save();
     painter.translate(target.topLeft());
     painter.scale(target.width() / canvas.width(), target.height() / canvas.height());
@@ -352,7 +428,7 @@ void paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const W
         buildPanes(charts, kind, results, options, area);
     }
     for (const Pane &pane : charts.panes)
-        paintPane(painter, pane, fonts, options.currency);
+        paintPane(painter, pane, chartFonts, options.currency);
     painter.restore();
 }
 
@@ -404,16 +480,19 @@ tailwise::Status writeChart(QIODevice &device, const ChartExportSettings &settin
     case ExportFormat::Svg: {
         QSvgGenerator svg;
         svg.setOutputDevice(&device);
-        const QSize units(static_cast<int>(std::lround(canvasUnits(mm.width()))),
-                          static_cast<int>(std::lround(canvasUnits(mm.height()))));
-        svg.setResolution(static_cast<int>(canvasPerInch)); // so width and height come out in mm
-        svg.setSize(units);
-        svg.setViewBox(QRectF(QPointF(0, 0), QSizeF(units)));
-        svg.setTitle(title);
-        svg.setDescription(settings.print.caption);
+        // The drawing is in canvas units (the viewBox); the declared size is in tenths of a mm
+        // (254 per inch), so width and height come out in whole mm as asked (170mm, not the
+        // 170.127mm of a whole number of canvas units).
+        const QRectF canvas(0, 0, canvasUnits(mm.width()), canvasUnits(mm.height()));
+        svg.setResolution(254);
+        svg.setSize(QSize(static_cast<int>(std::lround(mm.width() * 10.0)), static_cast<int>(std::lround(mm.height() * 10.0))));
+        svg.setViewBox(canvas);
+        // QSvgGenerator writes these as they are; "P&L" must reach the XML escaped.
+        svg.setTitle(title.toHtmlEscaped());
+        svg.setDescription(settings.print.caption.toHtmlEscaped());
         QPainter painter;
         if (painter.begin(&svg)) {
-            paintChart(painter, QRectF(QPointF(0, 0), QSizeF(units)), settings.kind, results, settings.print);
+            paintChart(painter, canvas, settings.kind, results, settings.print);
             written = painter.end();
         }
         break;

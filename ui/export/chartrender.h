@@ -4,7 +4,7 @@
 //
 // How the size works: the picture is laid out on a canvas of the physical size at 96 units per
 // inch (one unit = 0.2646 mm, the screen pixel the charts' pens and marks were drawn for), with
-// pixel-sized fonts whose size follows the physical width (print points, clamped 7.5…12 pt), and
+// pixel-sized fonts whose size follows the physical width (print points, clamped 7…11 pt), and
 // that canvas is scaled onto the target. So a 300 dpi PNG and a PDF of the same size show the
 // same picture, and text is the same size on paper whatever the resolution. Text stays text in
 // SVG and PDF (QCustomPlot paints with caching off).

@@ -11,12 +11,14 @@
 #include "stresspanel.h"
 #include "whatifpanel.h"
 
+#include <QAction>
 #include <QCheckBox>
 #include <QHBoxLayout>
 #include <QLabel>
 #include <QLocale>
 #include <QStackedWidget>
 #include <QTabWidget>
+#include <QToolButton>
 #include <QVBoxLayout>
 
 namespace tailwise::ui {
@@ -91,6 +93,7 @@ ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_w
     connect(&workbook, &Workbook::resultsChanged, this, &ChartTabs::refresh);
     connect(&workbook, &Workbook::contentsReset, this, &ChartTabs::refresh);
     connect(m_tabs, &QTabWidget::currentChanged, this, &ChartTabs::refreshTab);
+    connect(m_tabs, &QTabWidget::currentChanged, this, &ChartTabs::updateChartActions);
     connect(m_percent, &QCheckBox::toggled, this, &ChartTabs::refreshLossTail);
     connect(m_history, &QCheckBox::toggled, this, &ChartTabs::refreshLossTail);
     connect(m_overlay, &QCheckBox::toggled, this, &ChartTabs::refreshLossTail);
@@ -104,6 +107,50 @@ ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_w
                              tr("Pick %1 at %2 % on the map").arg(tradingDaysText(horizonDays), QLocale().toString(confidence * 100.0, 'g', 4)));
     });
     refresh();
+}
+
+std::optional<ChartKind> ChartTabs::currentChartKind() const
+{
+    if (!m_workbook.report())
+        return std::nullopt;
+    const QWidget *page = m_tabs->currentWidget();
+    if (page == m_lossTail->parentWidget())
+        return ChartKind::LossTail;
+    if (page == m_tradeoff)
+        return ChartKind::Tradeoff;
+    if (page == m_contributions)
+        return ChartKind::Contributions;
+    if (page == m_comparison)
+        return ChartKind::Models;
+    if (page == m_backtest)
+        return ChartKind::Backtest;
+    return std::nullopt;
+}
+
+void ChartTabs::setChartActions(QAction *exportChart, QAction *copyChart)
+{
+    m_exportChart = exportChart;
+    m_copyChart = copyChart;
+    auto *corner = new QWidget(m_tabs);
+    auto *row = new QHBoxLayout(corner);
+    row->setContentsMargins(0, 0, 4, 0);
+    row->setSpacing(2);
+    for (QAction *action : {exportChart, copyChart}) {
+        auto *button = new QToolButton(corner);
+        button->setDefaultAction(action);
+        button->setAutoRaise(true);
+        row->addWidget(button);
+    }
+    m_tabs->setCornerWidget(corner, Qt::TopRightCorner);
+    updateChartActions();
+}
+
+void ChartTabs::updateChartActions()
+{
+    const bool chart = currentChartKind().has_value();
+    for (QAction *action : {m_exportChart, m_copyChart})
+        if (action)
+            action->setEnabled(chart);
 }
 
 void ChartTabs::refreshLossTail()
@@ -145,9 +192,11 @@ void ChartTabs::refresh()
         m_empty->setText(error && !nothingYet ? tr("No charts: %1.").arg(QString::fromStdString(error->message))
                                               : tr("The charts appear here once there are figures to draw."));
         m_stack->setCurrentWidget(m_empty);
+        updateChartActions();
         return;
     }
     m_stack->setCurrentWidget(m_tabs);
+    updateChartActions();
     // Only the tab on view is redrawn now; the others when they are shown. With hundreds of
     // holdings a redraw of all three would cost more than a frame after every edit.
     m_stale = {true, true, true};

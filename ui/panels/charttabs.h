@@ -4,13 +4,17 @@
 // panels that go beyond one model's figures: every model side by side, trying a trade, and stress.
 #pragma once
 
+#include "export/chartkind.h"
+
 #include "tailwise/risk.h"
 
 #include <QWidget>
 
 #include <array>
+#include <optional>
 #include <vector>
 
+class QAction;
 class QCheckBox;
 class QLabel;
 class QStackedWidget;
@@ -42,10 +46,18 @@ public:
     StressPanel *stressPanel() const { return m_stress; }
     QCheckBox *modelOverlayOption() const { return m_overlay; }
 
+    // The chart of the tab in view, for Export Chart and Copy Chart; nullopt on the tabs without
+    // one (trying a trade, stress) and without figures.
+    std::optional<ChartKind> currentChartKind() const;
+    // The window's Export Chart and Copy Chart, shown as buttons beside the tabs and enabled
+    // while the tab in view has a chart.
+    void setChartActions(QAction *exportChart, QAction *copyChart);
+
 private:
     void refresh();
     void refreshLossTail();
     void refreshTab(int tab);
+    void updateChartActions();
 
     Workbook &m_workbook;
     QStackedWidget *m_stack = nullptr;
@@ -62,6 +74,8 @@ private:
     ModelComparisonView *m_comparison = nullptr;
     WhatIfPanel *m_whatIf = nullptr;
     StressPanel *m_stress = nullptr;
+    QAction *m_exportChart = nullptr;
+    QAction *m_copyChart = nullptr;
     std::array<bool, 3> m_stale{true, true, true}; // tab needs new data before it is drawn
 };
 

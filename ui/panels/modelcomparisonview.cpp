@@ -68,6 +68,11 @@ bool ModelComparisonView::isComputing() const
     return m_run->isRunning();
 }
 
+bool ModelComparisonView::isCurrent() const
+{
+    return !m_stale && !m_run->isRunning();
+}
+
 void ModelComparisonView::inputsChanged()
 {
     m_stale = true;

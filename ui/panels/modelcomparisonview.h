@@ -28,6 +28,9 @@ public:
     // Computes the table now, on this thread (tests, screenshots).
     void computeNow();
     bool isComputing() const;
+    // The table holds the comparison of the current figures (not one of older inputs, not one
+    // still being computed).
+    bool isCurrent() const;
 
 protected:
     void showEvent(QShowEvent *event) override;

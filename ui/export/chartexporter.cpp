@@ -1,0 +1,108 @@
+#include "export/chartexporter.h"
+
+#include "document/workbook.h"
+#include "export/captions.h"
+#include "export/chartclipboard.h"
+#include "export/chartexportdialog.h"
+#include "models/modelcomparisonmodel.h"
+#include "panels/backtestview.h"
+#include "panels/charttabs.h"
+#include "panels/modelcomparisonview.h"
+
+#include <QApplication>
+#include <QClipboard>
+#include <QFileDialog>
+#include <QFileInfo>
+#include <QMessageBox>
+
+namespace tailwise::ui {
+
+ChartExporter::ChartExporter(Workbook &workbook, ChartTabs &charts, QWidget *window)
+    : QObject(window), m_workbook(workbook), m_charts(charts), m_window(window)
+{
+    m_last.print.sizeMm = sizePresetMm(SizePreset::HalfPage);
+}
+
+std::optional<WorkbookResults> ChartExporter::currentResults() const
+{
+    const auto &report = m_workbook.report();
+    if (!report)
+        return std::nullopt;
+    std::optional<Result<BacktestResult>> backtest;
+    const BacktestRun &run = m_charts.backtestView()->runner().run();
+    if (run.problem)
+        backtest = Result<BacktestResult>(*run.problem);
+    else if (!run.models.empty() && run.models.front().result)
+        backtest = *run.models.front().result;
+    std::optional<Result<std::vector<ModelRow>>> models;
+    if (m_charts.modelComparison()->isCurrent() && !m_charts.modelComparison()->model()->rows().empty())
+        models = m_charts.modelComparison()->model()->rows();
+    WorkbookResults results = assembleWorkbookResults(m_workbook.title(), *report, run.settings, backtest, models);
+    if (!models)
+        results.modelsProblem = tr("open the “Models side by side” tab and let it finish, then export again.");
+    if (!results.backtestChart && !backtest)
+        results.backtestProblem = tr("the backtest is still running; export again when the Backtest tab shows it.");
+    return results;
+}
+
+QString ChartExporter::writeFile(const QString &path, const ChartExportSettings &settings) const
+{
+    const auto results = currentResults();
+    if (!results)
+        return tr("There are no figures to draw yet.");
+    const auto written = writeChart(path, settings, *results);
+    return written ? QString() : QString::fromStdString(written.error().message);
+}
+
+void ChartExporter::exportChart()
+{
+    const auto results = currentResults();
+    if (!results) {
+        QMessageBox::information(m_window, tr("Export Chart"), tr("There are no figures to draw yet."));
+        return;
+    }
+    ChartExportDialog dialog(*results, m_charts.currentChartKind().value_or(ChartKind::LossTail), m_last, m_window);
+    connect(&dialog, &ChartExportDialog::copyRequested, this,
+            [this, &results](const ChartExportSettings &s) { copy(s, *results); });
+    if (dialog.exec() != QDialog::Accepted)
+        return;
+    ChartExportSettings s = dialog.settings();
+    const QString suffix = exportFormatName(s.format);
+    const QString suggested = chartKindName(s.kind) + QLatin1Char('.') + suffix;
+    QString path = QFileDialog::getSaveFileName(m_window, tr("Export Chart"), suggested,
+                                                tr("%1 files (*.%2)").arg(suffix.toUpper(), suffix));
+    if (path.isEmpty())
+        return;
+    if (QFileInfo(path).suffix().isEmpty())
+        path += QLatin1Char('.') + suffix;
+    m_last = s;
+    if (const auto written = writeChart(path, s, *results); !written) {
+        QMessageBox::warning(m_window, tr("Could not export the chart"), QString::fromStdString(written.error().message));
+        return;
+    }
+    emit statusMessage(tr("Chart written to %1").arg(QFileInfo(path).fileName()));
+}
+
+void ChartExporter::copyChart()
+{
+    const auto results = currentResults();
+    if (!results)
+        return;
+    ChartExportSettings s = m_last;
+    s.kind = m_charts.currentChartKind().value_or(ChartKind::LossTail);
+    // Without the dialog the caption is the generated one: the clipboard carries the whole picture.
+    s.print.caption = captionFor(s.kind, *results);
+    copy(s, *results);
+}
+
+void ChartExporter::copy(const ChartExportSettings &settings, const WorkbookResults &results)
+{
+    if (const QString reason = chartUnavailableReason(settings.kind, results); !reason.isEmpty()) {
+        QMessageBox::information(m_window, tr("Copy Chart"), reason);
+        return;
+    }
+    QApplication::clipboard()->setMimeData(chartMimeData(settings, results));
+    emit statusMessage(tr("%1 copied to the clipboard").arg(chartKindTitle(settings.kind)));
+}
+
+} // namespace tailwise::ui
