@@ -10,10 +10,14 @@ namespace tailwise::ui {
 
 namespace {
 
-// The charts are laid out as if for a page 250 mm wide and drawn scaled into the 170 mm text
-// width (A4 less 20 mm margins, reportpdf.h): their labels then come out at about 8 pt on paper,
-// the size of the report's tables, with room between them (printLabelPoints in chartrender.h).
-constexpr double kChartLayoutWidthMm = 250.0;
+// The charts are laid out as if for a page wider than the 170 mm text width (A4 less 20 mm
+// margins, reportpdf.h) and drawn scaled into it: their labels then come out at about 8 pt on
+// paper, the size of the report's tables, with room between them (printLabelPoints in
+// chartrender.h). The backtest's legend of three long entries needs the widest.
+double layoutWidthMm(ChartKind kind)
+{
+    return kind == ChartKind::Backtest ? 250.0 : 210.0;
+}
 
 // Height over width of each chart on the page.
 double aspectOf(ChartKind kind)
@@ -35,7 +39,7 @@ report::ChartFigure figureFor(ChartKind kind, const WorkbookResults &results)
     if (!chartUnavailableReason(kind, results).isEmpty())
         return figure; // no picture; the section's words and tables remain
     ChartPrintOptions options;
-    options.sizeMm = QSizeF(kChartLayoutWidthMm, kChartLayoutWidthMm * figure.aspect);
+    options.sizeMm = QSizeF(layoutWidthMm(kind), layoutWidthMm(kind) * figure.aspect);
     figure.paint = [kind, &results, options](QPainter &painter, const QRectF &target) {
         paintChart(painter, target, kind, results, options);
     };

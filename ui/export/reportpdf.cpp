@@ -97,11 +97,17 @@ private:
     // What must fit below a heading so that it is not left alone: the start of the next block.
     double leadHeight(std::size_t index) const;
 
-    // A paragraph right before a table introduces it: what of the table must come with it.
+    // A paragraph right before a table or a subheading introduces it: what of that must come
+    // with the paragraph.
     double introducedLead(std::size_t paragraph) const
     {
         const std::size_t next = paragraph + 1;
-        return next < m_doc.blocks.size() && std::holds_alternative<Table>(m_doc.blocks[next]) ? leadHeight(next) : 0.0;
+        if (next >= m_doc.blocks.size())
+            return 0.0;
+        const Block &block = m_doc.blocks[next];
+        const auto *text = std::get_if<Text>(&block);
+        return std::holds_alternative<Table>(block) || (text && text->style == TextStyle::Subheading) ? leadHeight(next)
+                                                                                                     : 0.0;
     }
 
     // Tables
@@ -310,6 +316,9 @@ void Layout::flow()
             needed += spaceAfter(block) + leadHeight(i + 1);
         else if (t)
             needed += spaceAfter(block) + introducedLead(i);
+        // What is kept together never asks for more than most of a page: beyond that, the block
+        // goes alone (a heading still takes the start of what follows).
+        needed = std::min(needed, std::max(before + height(block), m_body.height() * 0.6));
         if (needed > room() && !atTop())
             newPage();
         m_y += atTop() ? 0.0 : spaceBefore(block);
