@@ -165,6 +165,9 @@ void TestReport::longTablesRunOverPagesWithTheirHeader()
     t.columns = {{QStringLiteral("Row"), false, 1.0}, {QStringLiteral("Amount"), true, 1.0}};
     for (int i = 0; i < 200; ++i)
         t.rows.push_back({QStringLiteral("row %1").arg(i), QString::number(i * 1000)});
+    // A name wider than its column is broken inside the cell, not run into the next one.
+    t.rows.push_back({QStringLiteral("AN_ASSET_CODE_FAR_TOO_LONG_FOR_HALF_A_PAGE_OF_TABLE_WIDTH_XXXXXXXXXXXXXX"),
+                      QStringLiteral("1")});
     doc.add(t);
     QBuffer buffer;
     buffer.open(QIODevice::WriteOnly);

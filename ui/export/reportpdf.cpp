@@ -86,10 +86,20 @@ public:
 
 private:
     double pt(double points) const { return points * kDpi / 72.0; }
+    // Word wrap; a word wider than the line (a long asset code in a narrow column) is broken
+    // anywhere rather than running into the next column.
+    int wrapFlags(const QFont &font, const QString &text, double width) const
+    {
+        const QFontMetricsF metrics(font, &m_device);
+        for (const QString &word : text.split(QLatin1Char(' '), Qt::SkipEmptyParts))
+            if (metrics.horizontalAdvance(word) > width)
+                return Qt::TextWrapAnywhere;
+        return Qt::TextWordWrap;
+    }
     double textHeight(const QFont &font, const QString &text, double width) const
     {
         const QFontMetricsF metrics(font, &m_device);
-        return metrics.boundingRect(QRectF(0, 0, width, 1e7), Qt::TextWordWrap, text).height();
+        return metrics.boundingRect(QRectF(0, 0, width, 1e7), wrapFlags(font, text, width), text).height();
     }
     double spaceBefore(const Block &block) const;
     double spaceAfter(const Block &block) const;
@@ -410,7 +420,8 @@ void Layout::paintTable(QPainter &painter, const Table &table, const Piece &piec
             const QRectF cell(x + cellPad(), y + cellPad(), widths[c] - 2 * cellPad(), h - 2 * cellPad());
             const Qt::Alignment align = (table.columns[c].numeric ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignTop;
             if (static_cast<int>(c) < row.size())
-                painter.drawText(cell, align | Qt::TextWordWrap, row[static_cast<int>(c)]);
+                painter.drawText(cell, int(align) | wrapFlags(painter.font(), row[static_cast<int>(c)], cell.width()),
+                                 row[static_cast<int>(c)]);
             x += widths[c];
         }
         y += h;
