@@ -121,7 +121,7 @@ Usage:
                       models         VaR and ES under every model
   --out FILE          the file to write; its suffix (.png, .svg, .pdf) chooses the format
   --format F          png, svg or pdf, whatever the suffix
-  --preset P          column (85 x 60 mm), half-page (170 x 110, the default),
+  --preset P          column (85 x 75 mm), half-page (170 x 110, the default),
                       full-page (170 x 230), slide (254 x 143, 16:9)
   --width-mm W        width in mm (30 to 600), instead of the preset's
   --height-mm H       height in mm (30 to 600), instead of the preset's; caption included

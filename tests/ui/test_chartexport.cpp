@@ -169,9 +169,9 @@ void TestChartExport::pngPixelsFollowDpiAndMm_data()
     QTest::addColumn<int>("dpi");
     QTest::addColumn<QSize>("pixels");
     // round(mm / 25.4 × dpi), worked by hand: 85 mm at 300 dpi = 1003.94 → 1004.
-    QTest::newRow("column 150") << 85.0 << 60.0 << 150 << QSize(502, 354);
-    QTest::newRow("column 300") << 85.0 << 60.0 << 300 << QSize(1004, 709);
-    QTest::newRow("column 600") << 85.0 << 60.0 << 600 << QSize(2008, 1417);
+    QTest::newRow("column 150") << 85.0 << 75.0 << 150 << QSize(502, 443);
+    QTest::newRow("column 300") << 85.0 << 75.0 << 300 << QSize(1004, 886);
+    QTest::newRow("column 600") << 85.0 << 75.0 << 600 << QSize(2008, 1772);
     QTest::newRow("custom 100x50 at 300") << 100.0 << 50.0 << 300 << QSize(1181, 591);
 }
 
@@ -197,7 +197,7 @@ void TestChartExport::pngPixelsFollowDpiAndMm()
 
 void TestChartExport::presetsAndNames()
 {
-    QCOMPARE(sizePresetMm(SizePreset::Column), QSizeF(85, 60));
+    QCOMPARE(sizePresetMm(SizePreset::Column), QSizeF(85, 75));
     QCOMPARE(sizePresetMm(SizePreset::Slide).width() / sizePresetMm(SizePreset::Slide).height() > 1.77, true); // 16:9
     for (const ChartKind k : allChartKinds)
         QCOMPARE(parseChartKind(chartKindName(k)), std::optional<ChartKind>(k));

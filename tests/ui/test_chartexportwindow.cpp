@@ -104,7 +104,7 @@ void TestChartExportWindow::dialogPrefillsAndKeepsEdits()
     ChartExportDialog dialog(*results, ChartKind::Contributions, last);
     QCOMPARE(dialog.settings().kind, ChartKind::Contributions);
     QCOMPARE(dialog.captionEdit()->toPlainText(), captionFor(ChartKind::Contributions, *results));
-    QCOMPARE(dialog.settings().print.sizeMm, QSizeF(85, 60));
+    QCOMPARE(dialog.settings().print.sizeMm, QSizeF(85, 75));
     QVERIFY(!dialog.preview()->pixmap().isNull());
 
     // Another chart: its own caption, while the user has not touched it.

@@ -90,14 +90,16 @@ ChartExportDialog::ChartExportDialog(const WorkbookResults &results, ChartKind k
 
     auto *form = new QFormLayout;
     form->addRow(tr("&Chart:"), m_chart);
-    form->addRow(tr("&Size:"), sizeRow);
+    auto *sizeLabel = new QLabel(tr("&Size:"), this);
+    sizeLabel->setBuddy(m_size);
+    form->addRow(sizeLabel, sizeRow);
     form->addRow(tr("&Format:"), m_format);
     form->addRow(tr("&Resolution:"), m_dpi);
     form->addRow(tr("Curr&ency:"), m_currency);
     form->addRow(tr("Ca&ption:"), m_caption);
 
     auto *buttons = new QDialogButtonBox(QDialogButtonBox::Cancel, this);
-    m_save = buttons->addButton(tr("&Save…"), QDialogButtonBox::AcceptRole);
+    m_save = buttons->addButton(tr("Save &as…"), QDialogButtonBox::AcceptRole);
     QPushButton *copy = buttons->addButton(tr("C&opy"), QDialogButtonBox::ActionRole);
     copy->setToolTip(tr("Put the chart on the clipboard (a picture at the chosen resolution, and SVG)."));
     connect(buttons, &QDialogButtonBox::accepted, this, &QDialog::accept);

@@ -185,7 +185,10 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
         chart->setData(results.tradeoff);
         charts.note = results.tradeoff.note;
         const double gap = canvasUnits(3.0);
-        if (area.width() < area.height() * 1.1) {
+        if (area.width() < canvasUnits(120.0)) {
+            // A column has room for one picture: the map, which holds both the others.
+            charts.panes.push_back({chart->mapPlot(), area});
+        } else if (area.width() < area.height() * 1.1) {
             // Tall: the three pictures stacked, the map with the most room.
             const double h = (area.height() - 2.0 * gap) / 4.0;
             charts.panes.push_back({chart->horizonPlot(), QRectF(area.left(), area.top(), area.width(), h)});
@@ -203,11 +206,29 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
     }
     case ChartKind::Contributions: {
         auto *chart = new ContributionsChart(host);
-        chart->setData(results.contributions);
+        // As many bars as the height holds at the print size (one per 1.7 lines of tick text);
+        // the smallest are pooled into "other holdings", as on screen beyond 20.
+        const double line = QFontMetricsF(fontsFor(options.sizeMm, 0.9).scaled(chartstyle::tickFont())).height();
+        ContributionsOptions bars;
+        bars.maxBars = std::clamp(static_cast<int>((area.height() - 6.0 * line) / (1.7 * line)), 3, 20);
+        chart->setData(static_cast<int>(results.report.holdings.size()) > bars.maxBars
+                           ? buildContributionsChartData(results.report, bars)
+                           : results.contributions);
         QCustomPlot *p = chart->plot();
         // On paper: more room for the diversification step, room right of the longest bar for
         // its label, and the step's sentence left to the caption, which says it in full.
         p->plotLayout()->setColumnStretchFactors({1.6, 1.0});
+        if (area.width() < canvasUnits(120.0) && p->axisRectCount() > 1) {
+            // Too narrow for two panels: the bars alone; the caption gives the diversification.
+            QCPAxisRect *step = p->axisRect(1);
+            for (int i = p->itemCount() - 1; i >= 0; --i)
+                if (p->item(i)->clipAxisRect() == step)
+                    p->removeItem(i);
+            step->setVisible(false);
+            p->plotLayout()->take(step);
+            p->plotLayout()->remove(p->plotLayout()->element(0, 1));
+            p->plotLayout()->simplify();
+        }
         if (QCPAxisRect *bars = p->axisRect(0)) {
             QCPAxis *money = bars->axis(QCPAxis::atBottom);
             const double span = money->range().size();
@@ -327,7 +348,7 @@ std::optional<SizePreset> parseSizePreset(const QString &name)
 QSizeF sizePresetMm(SizePreset preset)
 {
     switch (preset) {
-    case SizePreset::Column: return {85.0, 60.0};
+    case SizePreset::Column: return {85.0, 75.0};
     case SizePreset::HalfPage: return {170.0, 110.0};
     case SizePreset::FullPage: return {170.0, 230.0};
     case SizePreset::Slide: return {254.0, 143.0};
@@ -391,11 +412,17 @@ void paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const W
     QRectF area(margin, margin, canvas.width() - 2.0 * margin, canvas.height() - 2.0 * margin);
     const QString caption = options.caption.trimmed();
     if (!caption.isEmpty()) {
-        // The caption takes what it needs at the bottom; the chart keeps at least half the height.
-        const QFont font = fonts.labelFont();
-        const QRectF needed = QFontMetricsF(font).boundingRect(QRectF(0, 0, area.width(), 1e6),
-                                                               Qt::TextWordWrap | Qt::AlignLeft, caption);
-        const double h = std::min(needed.height(), area.height() / 2.0);
+        // The caption takes what it needs at the bottom, in the label size while it fits in 40% of
+        // the height, else smaller (down to about 6 pt); the chart keeps at least half the height.
+        QFont font = fonts.labelFont();
+        const auto needed = [&] {
+            return QFontMetricsF(font)
+                .boundingRect(QRectF(0, 0, area.width(), 1e6), Qt::TextWordWrap | Qt::AlignLeft, caption)
+                .height();
+        };
+        while (font.pixelSize() > 8 && needed() > 0.4 * area.height())
+            font.setPixelSize(font.pixelSize() - 1);
+        const double h = std::min(needed(), area.height() / 2.0);
         const QRectF box(area.left(), area.bottom() - h, area.width(), h);
         painter.setFont(font);
         painter.setPen(chartstyle::ink());

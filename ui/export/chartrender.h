@@ -40,7 +40,7 @@ QString exportFormatName(ExportFormat format);                    // "png", "svg
 std::optional<ExportFormat> parseExportFormat(const QString &name); // case-insensitive
 std::optional<ExportFormat> exportFormatForPath(const QString &path); // by the file's suffix
 
-// Sizes that fit common uses (width × height, mm): a letter's column 85 × 60, half a page
+// Sizes that fit common uses (width × height, mm): a letter's column 85 × 75, half a page
 // 170 × 110, a full page 170 × 230 (the text area of A4 and US Letter with 20 mm margins), a
 // 16:9 slide 254 × 143 (10 in wide).
 enum class SizePreset { Column, HalfPage, FullPage, Slide };
@@ -48,7 +48,7 @@ inline constexpr std::array<SizePreset, 4> allSizePresets{SizePreset::Column, Si
                                                           SizePreset::Slide};
 QString sizePresetName(SizePreset preset);                      // "column", "half-page", "full-page", "slide"
 std::optional<SizePreset> parseSizePreset(const QString &name);
-QString sizePresetTitle(SizePreset preset);                     // "A letter's column (85 × 60 mm)"
+QString sizePresetTitle(SizePreset preset);                     // "A letter's column (85 × 75 mm)"
 QSizeF sizePresetMm(SizePreset preset);
 
 inline constexpr std::array<int, 3> exportDpiChoices{150, 300, 600};

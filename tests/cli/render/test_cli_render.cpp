@@ -99,7 +99,7 @@ void TestCliRender::everyChartWithoutADisplay()
     QVERIFY2(png.startsWith(QByteArray("\x89PNG\r\n\x1a\n", 8)), "PNG signature");
     QImage image;
     QVERIFY(image.loadFromData(png, "PNG"));
-    QCOMPARE(image.size(), QSize(502, 354)); // 85 × 60 mm at 150 dpi: round(mm / 25.4 × 150)
+    QCOMPARE(image.size(), QSize(502, 443)); // 85 × 75 mm at 150 dpi: round(mm / 25.4 × 150)
 }
 
 void TestCliRender::svgAndPdfAtAPreset()
