@@ -23,6 +23,9 @@ Actions::Actions(QUndoStack *undoStack, QObject *parent) : QObject(parent)
     get(ExportChart)->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_E));
     make(CopyChart, tr("Cop&y Chart"), tr("Put the chart in view on the clipboard, with its caption"));
     get(CopyChart)->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_C));
+    make(ExportReport, tr("Export &Report…"),
+         tr("Write a PDF report of the workbook: figures, charts, backtest, assumptions and cautions"));
+    get(ExportReport)->setShortcut(QKeySequence(tr("Ctrl+Shift+R")));
     make(Quit, tr("&Quit"), tr("Close the window"), QKeySequence::Quit);
     get(ImportPrices)->setShortcut(QKeySequence(tr("Ctrl+Shift+I")));
 
@@ -71,6 +74,8 @@ void Actions::buildMenus(QMainWindow *window)
     file->addAction(get(ImportHoldings));
     file->addAction(get(ExportHoldings));
     file->addAction(get(ExportChart));
+    file->addSeparator();
+    file->addAction(get(ExportReport));
     file->addSeparator();
     file->addAction(get(Quit));
 

@@ -28,6 +28,7 @@ public:
         ExportHoldings,
         ExportChart,
         CopyChart,
+        ExportReport,
         Quit,
         Undo,
         Redo,

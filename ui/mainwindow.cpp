@@ -7,6 +7,7 @@
 #include "document/workbook.h"
 #include "document/workbookfile.h"
 #include "export/chartexporter.h"
+#include "export/reportjob.h"
 #include "panels/assumptionspane.h"
 #include "panels/cautionsnote.h"
 #include "panels/charttabs.h"
@@ -177,6 +178,7 @@ void MainWindow::connectActions()
     connect(a.get(Actions::ImportPrices), &QAction::triggered, this, &MainWindow::importPricesWithDialog);
     connect(a.get(Actions::ImportHoldings), &QAction::triggered, this, &MainWindow::importHoldingsWithDialog);
     connect(a.get(Actions::ExportHoldings), &QAction::triggered, this, &MainWindow::exportHoldingsWithDialog);
+    connect(a.get(Actions::ExportReport), &QAction::triggered, this, &MainWindow::exportReportWithDialog);
     connect(a.get(Actions::Quit), &QAction::triggered, this, &QWidget::close);
     connect(a.get(Actions::AddHolding), &QAction::triggered, m_holdings, &HoldingsEditor::addHolding);
     connect(a.get(Actions::RemoveHolding), &QAction::triggered, m_holdings, &HoldingsEditor::removeSelected);
@@ -363,6 +365,37 @@ void MainWindow::exportHoldingsWithDialog()
         showProblem(tr("Could not export the holdings"), problem);
     else
         statusBar()->showMessage(tr("Exported the holdings to %1.").arg(QDir::toNativeSeparators(path)), kStatusTimeoutMs);
+}
+
+void MainWindow::exportReportWithDialog()
+{
+    const QString path = m_workbook->filePath();
+    const QString suggested = QDir(dialogFolder()).filePath(
+        (path.isEmpty() ? tr("report") : QFileInfo(path).completeBaseName()) + QStringLiteral(".pdf"));
+    QString chosen = QFileDialog::getSaveFileName(this, tr("Export Report"), suggested, tr("PDF files (*.pdf)"));
+    if (chosen.isEmpty())
+        return;
+    if (QFileInfo(chosen).suffix().isEmpty())
+        chosen += QStringLiteral(".pdf");
+    exportReportFile(chosen);
+}
+
+void MainWindow::exportReportFile(const QString &path)
+{
+    const QString file = m_workbook->filePath();
+    auto *job = new ReportJob(m_workbook->contents(), file.isEmpty() ? tr("Untitled") : QFileInfo(file).fileName(),
+                              path, this);
+    QAction *action = m_actions->get(Actions::ExportReport);
+    action->setEnabled(false); // one report at a time
+    connect(job, &ReportJob::finished, this, [this, action](const QString &pdf, const QString &problem, int pages) {
+        action->setEnabled(true);
+        if (!problem.isEmpty())
+            return showProblem(tr("Could not export the report"), problem);
+        statusBar()->showMessage(tr("Wrote the report to %1 (%2 pages).").arg(QDir::toNativeSeparators(pdf)).arg(pages),
+                                 kStatusTimeoutMs);
+    });
+    statusBar()->showMessage(tr("Writing the report…"));
+    job->start();
 }
 
 void MainWindow::showAbout()

@@ -54,6 +54,9 @@ public:
     // Refuses, and changes nothing, when the file has errors (the message names line and column)
     // or lacks an asset that is held (the message names them).
     QString importPriceHistoryFile(const QString &path);
+    // Starts writing the workbook's PDF report to `path` (ReportJob); the status line says when it
+    // is written, a message box why not.
+    void exportReportFile(const QString &path);
 
 protected:
     void closeEvent(QCloseEvent *event) override;
@@ -75,6 +78,7 @@ private:
     void importPricesWithDialog();
     void importHoldingsWithDialog();
     void exportHoldingsWithDialog();
+    void exportReportWithDialog();
     void showAbout();
     void addRecentFile(const QString &path);
     QString dialogFolder() const;

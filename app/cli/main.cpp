@@ -6,6 +6,7 @@
 #include "varoptions.h"
 #include "workbookinput.h"
 #include "packcommand.h"
+#include "pdfreportcommand.h"
 #include "rendercommand.h"
 
 #include "tailwise/holdings.h"
@@ -31,6 +32,8 @@ Usage:
   tailwise-cli pack [options]    make a workbook (.tailwise) from CSV files (tailwise-cli pack --help)
   tailwise-cli render WORKBOOK --chart KIND --out FILE
                                  draw a chart to PNG, SVG or PDF (tailwise-cli render --help)
+  tailwise-cli report WORKBOOK --out FILE.pdf
+                                 the workbook's PDF report (tailwise-cli report --help)
   tailwise-cli --help            this text
   tailwise-cli --version
 )";
@@ -126,5 +129,7 @@ int main(int argc, char **argv)
         return tailwise::cli::runBacktestCommand({args.begin() + 1, args.end()});
     if (args[0] == "render")
         return tailwise::cli::runRenderCommand({args.begin() + 1, args.end()});
-    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest, pack, render)");
+    if (args[0] == "report")
+        return tailwise::cli::runPdfReportCommand({args.begin() + 1, args.end()});
+    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest, pack, render, report)");
 }

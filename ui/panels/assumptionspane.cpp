@@ -1,5 +1,6 @@
 #include "assumptionspane.h"
 
+#include "assumptionlabels.h"
 #include "document/workbook.h"
 #include "localnumbers.h"
 #include "modelsettings.h"
@@ -40,23 +41,7 @@ QLabel *sectionTitle(const QString &text, QWidget *parent)
 }
 
 // Models the core knows, by their file names; the list follows the core as models are added.
-struct ModelChoice {
-    const char *name;
-    const char *label;
-    const char *tip;
-};
-const ModelChoice kModels[] = {
-    {"normal", QT_TRANSLATE_NOOP("AssumptionsPane", "Normal"),
-     QT_TRANSLATE_NOOP("AssumptionsPane", "P&L taken as normally distributed with the estimated mean and covariance.")},
-    {"student-t", QT_TRANSLATE_NOOP("AssumptionsPane", "Student-t"),
-     QT_TRANSLATE_NOOP("AssumptionsPane", "Like normal, but with fatter tails fitted to the data: large losses are more likely.")},
-    {"cornish-fisher", QT_TRANSLATE_NOOP("AssumptionsPane", "Cornish–Fisher"),
-     QT_TRANSLATE_NOOP("AssumptionsPane", "Normal corrected for the skew and fat tails seen in the window.")},
-    {"historical", QT_TRANSLATE_NOOP("AssumptionsPane", "Historical"),
-     QT_TRANSLATE_NOOP("AssumptionsPane", "Replays the window's actual daily moves on today's holdings; no distribution assumed.")},
-    {"monte-carlo", QT_TRANSLATE_NOOP("AssumptionsPane", "Monte Carlo"),
-     QT_TRANSLATE_NOOP("AssumptionsPane", "Draws many random scenarios from the estimated model; runs in the background.")},
-};
+const char *const kModels[] = {"normal", "student-t", "cornish-fisher", "historical", "monte-carlo"};
 
 } // namespace
 
@@ -158,8 +143,8 @@ void AssumptionsPane::buildWidgets()
     m_windowRange->setToolTip(tr("The dates of the first and last daily return in the window."));
     form->addRow(tr("Covers"), m_windowRange);
     m_returns = new QComboBox(this);
-    m_returns->addItem(tr("Simple (percentage change)"), int(ReturnType::Simple));
-    m_returns->addItem(tr("Log (continuously compounded)"), int(ReturnType::Log));
+    for (ReturnType r : {ReturnType::Simple, ReturnType::Log})
+        m_returns->addItem(returnTypeLabel(r), int(r));
     m_returns->setToolTip(tr("How a day's move is measured: the percentage change of the price, or the log of "
                              "its ratio. They differ little for small daily moves."));
     form->addRow(tr("Returns"), m_returns);
@@ -167,8 +152,8 @@ void AssumptionsPane::buildWidgets()
     // --- Estimation ---
     form->addRow(sectionTitle(tr("How it is estimated"), this));
     m_estimator = new QComboBox(this);
-    m_estimator->addItem(tr("Equal weights"), int(CovarianceEstimator::Sample));
-    m_estimator->addItem(tr("Recent days weigh more (EWMA)"), int(CovarianceEstimator::Ewma));
+    for (CovarianceEstimator e : {CovarianceEstimator::Sample, CovarianceEstimator::Ewma})
+        m_estimator->addItem(estimatorLabel(e), int(e));
     m_estimator->setToolTip(tr("How the window's days are weighted when estimating volatilities and "
                                "correlations: all alike, or recent days more (exponentially weighted)."));
     form->addRow(tr("Weighting"), m_estimator);
@@ -185,16 +170,18 @@ void AssumptionsPane::buildWidgets()
     lambdaRow->addWidget(m_lambdaEffective);
     form->addRow(tr("Decay λ"), lambdaRow);
     m_mean = new QComboBox(this);
-    m_mean->addItem(tr("Zero"), int(MeanModel::Zero));
-    m_mean->addItem(tr("Estimated from the window"), int(MeanModel::Sample));
+    for (MeanModel m : {MeanModel::Zero, MeanModel::Sample})
+        m_mean->addItem(meanLabel(m), int(m));
     m_mean->setToolTip(tr("The expected daily gain: taken as zero (the cautious, usual choice), or the window's "
                           "average. An estimated gain lowers VaR, more so at long horizons."));
     form->addRow(tr("Expected gain"), m_mean);
     m_model = new QComboBox(this);
-    for (const ModelChoice &m : kModels) {
-        if (const auto model = parseRiskModel(m.name)) {
-            m_model->addItem(tr(m.label), int(*model));
-            m_model->setItemData(m_model->count() - 1, tr(m.tip), Qt::ToolTipRole);
+    for (const char *name : kModels) {
+        if (const auto model = parseRiskModel(name)) {
+            m_model->addItem(modelLabel(*model), int(*model));
+            const QString tip = modelDescription(*model)
+                                + (*model == RiskModel::MonteCarlo ? tr(" It runs in the background.") : QString());
+            m_model->setItemData(m_model->count() - 1, tip, Qt::ToolTipRole);
         }
     }
     m_model->setToolTip(tr("The model that turns the estimates into a loss distribution."));

@@ -1,5 +1,7 @@
 #include "panels/backtestview.h"
 
+#include "panels/backtestwords.h"
+
 #include "charts/backtestchart.h"
 #include "charts/chartstyle.h"
 #include "document/commands.h"
@@ -32,6 +34,8 @@ namespace tailwise::ui {
 
 namespace {
 
+using namespace backtestwords;
+
 QString number(double value, int decimals)
 {
     if (!std::isfinite(value))
@@ -39,35 +43,9 @@ QString number(double value, int decimals)
     return QLocale().toString(value, 'f', decimals);
 }
 
-// A p-value as read in reports: four decimals, or "< 0.0001" below that.
-QString pValueText(double p)
-{
-    if (!std::isfinite(p))
-        return QStringLiteral("–");
-    if (p < 0.0001)
-        return QStringLiteral("< ") + QLocale().toString(0.0001, 'f', 4);
-    return QLocale().toString(p, 'f', 4);
-}
-
 QString dateText(Date date)
 {
     return QLocale().toString(QDate(1970, 1, 1).addDays(date.serial), QLocale::ShortFormat);
-}
-
-// A test size as a percentage without trailing zeros (0.05 → "5 %").
-QString sizeText(double testSize)
-{
-    return QLocale().toString(testSize * 100.0, 'g', 4) + QStringLiteral(" %");
-}
-
-QString zoneName(Zone zone)
-{
-    switch (zone) {
-    case Zone::Green: return BacktestView::tr("Green");
-    case Zone::Yellow: return BacktestView::tr("Yellow");
-    case Zone::Red: return BacktestView::tr("Red");
-    }
-    return {};
 }
 
 // Light fills with dark text: the zone's word carries the meaning, the colour only repeats it.
@@ -83,41 +61,6 @@ QString zoneStyle(Zone zone)
     }
     return QStringLiteral("QLabel { background: %1; border: 2px solid %2; border-radius: 4px; color: #1d242b; padding: 6px; }")
         .arg(QLatin1String(fill), QLatin1String(edge));
-}
-
-QString zoneMeaning(Zone zone)
-{
-    switch (zone) {
-    case Zone::Green: return BacktestView::tr("within what chance gives a correct model");
-    case Zone::Yellow: return BacktestView::tr("more than a correct model usually gives; look closer");
-    case Zone::Red: return BacktestView::tr("so many that a correct model is very unlikely");
-    }
-    return {};
-}
-
-QString kupiecWords(const BacktestResult &r, const BacktestVerdict &v)
-{
-    if (!v.kupiecRejected)
-        return BacktestView::tr("not rejected: the number of exceptions fits %1 VaR")
-            .arg(chartstyle::confidenceText(r.assumptions.confidence));
-    return v.tooManyExceptions ? BacktestView::tr("rejected: too many exceptions, the model understates the risk")
-                               : BacktestView::tr("rejected: too few exceptions, the model overstates the risk");
-}
-
-QString independenceWords(const BacktestResult &r, const BacktestVerdict &v)
-{
-    if (r.christoffersen.transitions.total() == 0)
-        return BacktestView::tr("not informative: no day-to-day transitions");
-    if (!v.independenceRejected)
-        return BacktestView::tr("not rejected: no sign that exceptions cluster in time");
-    return v.clustering ? BacktestView::tr("rejected: an exception makes one the next day more likely")
-                        : BacktestView::tr("rejected: exceptions are spread more evenly than chance gives");
-}
-
-QString coverageWords(const BacktestVerdict &v)
-{
-    return v.coverageRejected ? BacktestView::tr("rejected: rate and timing of exceptions together do not fit")
-                              : BacktestView::tr("not rejected: rate and timing of exceptions together fit");
 }
 
 QTableWidgetItem *cell(const QString &text, Qt::Alignment align = Qt::AlignRight | Qt::AlignVCenter)
@@ -300,10 +243,7 @@ BacktestView::BacktestView(Workbook &workbook, QWidget *parent) : QWidget(parent
     m_stack->addWidget(m_message);
     m_stack->addWidget(results);
 
-    auto *cautions = new QLabel(tr("A backtest looks at the past only, with today's holdings kept fixed: passing it does not "
-                                   "prove the model right, and VaR is not the worst case. Estimates, not advice; regulatory "
-                                   "use follows local rules and approved models."),
-                                this);
+    auto *cautions = new QLabel(caution(), this);
     cautions->setWordWrap(true);
     cautions->setFont(chartstyle::noteFont());
 
