@@ -160,9 +160,12 @@ Result<std::string> readFileText(const std::string &path, std::size_t maxBytes)
     if (!file)
         return fileError(ErrorKind::FileUnreadable, path, 0, 0, "the file cannot be opened for reading");
     std::string text;
-    if (!ec)
-        text.reserve(static_cast<std::size_t>(size));
-    char buffer[1 << 16];
+    if (!ec) {
+        // Straight into the string: a large file is not copied a second time.
+        text.resize(static_cast<std::size_t>(size));
+        text.resize(std::fread(text.data(), 1, text.size(), file));
+    }
+    char buffer[1 << 16]; // the rest, if the file grew since its size was taken
     std::size_t got = 0;
     while ((got = std::fread(buffer, 1, sizeof buffer, file)) > 0) {
         text.append(buffer, got);
