@@ -9,7 +9,7 @@ TAILWISE_PACKAGES=(
   fonts-dejavu-core xvfb xauth
   clang libclang-rt-14-dev
   poppler-utils python3-numpy python3-scipy
-  python3-pandas libopenblas-dev
+  python3-pandas libopenblas-dev libfast-float-dev
 )
 
 tailwise_install_packages() {

@@ -67,11 +67,44 @@ std::size_t chunkCount(std::size_t rows, std::size_t assets)
     return std::min({hardware, rows, std::size_t{16}});
 }
 
-// One data row: the date into `date`, each price into `prices[0, assets)` (a gap stays NaN).
-// The first error on the line, or nothing.
-std::optional<Error> parseRow(const DataLine &line, std::size_t assets, const std::string &source, double *prices,
-                              RowDate &date)
+// The common row, "YYYY-MM-DD,p,p,…,p" with every price a plain positive number and nothing else
+// in the cells, read in one pass without looking for the commas first. False for anything else
+// (a gap, a blank, a quote, a sign, a bad cell, a wrong count): parseRow then reads the row the
+// general way, which gives the same prices and the message.
+bool parsePlainRow(std::string_view line, std::size_t assets, double *prices, std::size_t stride, RowDate &date)
 {
+    if (line.size() < 11 || line[10] != ',')
+        return false;
+    const auto parsed = parseIsoDate(line.substr(0, 10));
+    if (!parsed)
+        return false;
+    const char *at = line.data() + 11;
+    const char *const last = line.data() + line.size();
+    for (std::size_t a = 0; a < assets; ++a) {
+        at = csv::parsePositivePrefix(at, last, prices[a * stride]);
+        if (!at)
+            return false;
+        if (a + 1 < assets) {
+            if (at == last || *at != ',')
+                return false;
+            ++at;
+        }
+    }
+    if (at != last)
+        return false;
+    date = RowDate{*parsed, true};
+    return true;
+}
+
+// One data row: the date into `date`, asset a's price into `prices[a · stride]` (a column of the
+// column-major matrix; a gap is NaN). The first error on the line, or nothing.
+std::optional<Error> parseRow(const DataLine &line, std::size_t assets, const std::string &source, double *prices,
+                              std::size_t stride, RowDate &date)
+{
+    if (parsePlainRow(line.text, assets, prices, stride, date))
+        return std::nullopt;
+    for (std::size_t a = 0; a < assets; ++a) // gaps, and whatever a partial fast pass wrote
+        prices[a * stride] = std::numeric_limits<double>::quiet_NaN();
     std::optional<Error> failure;
     const int lineNo = line.lineNumber;
     const int count = csv::forEachCell(line.text, [&](int index, std::string_view cell) {
@@ -106,7 +139,7 @@ std::optional<Error> parseRow(const DataLine &line, std::size_t assets, const st
                                 "expected a price greater than zero, found " + std::string(cell));
             return false;
         }
-        prices[index - 1] = *price;
+        prices[static_cast<std::size_t>(index - 1) * stride] = *price;
         return true;
     });
     if (failure)
@@ -116,17 +149,6 @@ std::optional<Error> parseRow(const DataLine &line, std::size_t assets, const st
                          "the row has " + std::to_string(count) + " cells, expected " + std::to_string(assets + 1)
                              + " as in the header");
     return std::nullopt;
-}
-
-// Row-major `rows` × `cols` into column-major, in tiles that stay in cache on both sides.
-void copyTransposed(const double *from, std::size_t rows, std::size_t cols, double *to)
-{
-    constexpr std::size_t tile = 32;
-    for (std::size_t r0 = 0; r0 < rows; r0 += tile)
-        for (std::size_t c0 = 0; c0 < cols; c0 += tile)
-            for (std::size_t c = c0; c < std::min(cols, c0 + tile); ++c)
-                for (std::size_t r = r0; r < std::min(rows, r0 + tile); ++r)
-                    to[c * rows + r] = from[r * cols + c];
 }
 
 } // namespace
@@ -212,15 +234,18 @@ Result<PriceHistory> parsePriceCsv(std::string_view text, const std::string &sou
     // Second pass: the rows' cells, in contiguous chunks on the hardware threads. Each chunk stops
     // at its first bad row; the row reported is the first bad one in file order, so the message
     // is the one a reading from top to bottom would give, whatever the number of threads.
+    // Straight into the column-major matrix: no second copy of the prices, and no pass to fill it
+    // first (every row writes all its cells).
     const std::size_t rows = dataLines.size();
-    std::vector<double> values(rows * n, std::numeric_limits<double>::quiet_NaN()); // row-major
+    history.prices.resize(static_cast<Eigen::Index>(rows), static_cast<Eigen::Index>(n));
+    double *const values = history.prices.data(); // asset a's price on row r at values[a · rows + r]
     std::vector<RowDate> dates(rows);
     const std::size_t chunks = chunkCount(rows, n);
     std::vector<ChunkFailure> failures(chunks);
     auto parseChunk = [&](std::size_t chunk) {
         const std::size_t first = rows * chunk / chunks, last = rows * (chunk + 1) / chunks;
         for (std::size_t r = first; r < last; ++r) {
-            if (auto error = parseRow(dataLines[r], n, source, &values[r * n], dates[r])) {
+            if (auto error = parseRow(dataLines[r], n, source, values + r, rows, dates[r])) {
                 failures[chunk] = ChunkFailure{r, std::move(error)};
                 return;
             }
@@ -263,37 +288,37 @@ Result<PriceHistory> parsePriceCsv(std::string_view text, const std::string &sou
     // Gap handling: carry the previous price forward; drop the rows before every asset has one.
     std::size_t firstFullRow = 0;
     for (std::size_t a = 0; a < n; ++a) {
+        const double *column = values + a * rows;
         std::size_t r = 0;
-        while (r < rows && std::isnan(values[r * n + a]))
+        while (r < rows && std::isnan(column[r]))
             ++r;
         if (r == rows)
             return fileError(ErrorKind::InsufficientData, source, headerLine, static_cast<int>(a) + 2,
                              "the asset \"" + history.assets[a] + "\" has no price on any row");
         firstFullRow = std::max(firstFullRow, r);
     }
-    std::size_t leadingGaps = 0;
-    for (std::size_t r = 0; r < firstFullRow; ++r)
-        for (std::size_t a = 0; a < n; ++a)
-            leadingGaps += std::isnan(values[r * n + a]) ? 1 : 0;
-    // Fill in place, row by row: a gap takes the (already filled) price of the row above; on the
-    // first kept row it takes the asset's last price on a dropped row (it has one, or firstFullRow
-    // would be later).
-    std::size_t filled = 0;
-    for (std::size_t r = firstFullRow; r < rows; ++r) {
-        double *row = &values[r * n];
-        for (std::size_t a = 0; a < n; ++a) {
-            if (!std::isnan(row[a]))
+    // Fill each column downwards: a gap takes the (already filled) price of the row above; on the
+    // first kept row, the asset's last price on a dropped row (it has one, or firstFullRow would be
+    // later).
+    std::size_t leadingGaps = 0, filled = 0;
+    for (std::size_t a = 0; a < n; ++a) {
+        double *column = values + a * rows;
+        for (std::size_t r = 0; r < firstFullRow; ++r)
+            leadingGaps += std::isnan(column[r]) ? 1 : 0;
+        for (std::size_t r = firstFullRow; r < rows; ++r) {
+            if (!std::isnan(column[r]))
                 continue;
             std::size_t back = r;
-            while (std::isnan(values[(back - 1) * n + a]))
+            while (std::isnan(column[back - 1]))
                 --back;
-            row[a] = values[(back - 1) * n + a];
+            column[r] = column[back - 1];
             ++filled;
         }
     }
-    const std::size_t keptRows = rows - firstFullRow;
-    history.prices.resize(static_cast<Eigen::Index>(keptRows), static_cast<Eigen::Index>(n));
-    copyTransposed(&values[firstFullRow * n], keptRows, n, history.prices.data());
+    if (firstFullRow > 0) {
+        const Eigen::MatrixXd kept = history.prices.bottomRows(static_cast<Eigen::Index>(rows - firstFullRow));
+        history.prices = kept;
+    }
     if (firstFullRow > 0) {
         history.dates.erase(history.dates.begin(), history.dates.begin() + static_cast<std::ptrdiff_t>(firstFullRow));
         history.warnings.push_back(source + ": dropped the first " + plural(firstFullRow, "row", "rows")
@@ -312,10 +337,11 @@ Result<PriceHistory> parsePriceCsv(std::string_view text, const std::string &sou
 
 Result<PriceHistory> readPriceCsv(const std::string &path)
 {
-    auto text = csv::readFileText(path, PriceLimits::maxFileBytes);
-    if (!text)
-        return text.error();
-    return parsePriceCsv(text.value(), path);
+    // Parsed straight from a mapping of the file: a large history is not copied first.
+    auto file = csv::FileText::open(path, PriceLimits::maxFileBytes);
+    if (!file)
+        return file.error();
+    return parsePriceCsv(file.value().text(), path);
 }
 
 namespace {
