@@ -142,9 +142,20 @@ Result<std::vector<StressOutcome>> worstDays(const PriceHistory &prices, const H
     if (!window)
         return window.error();
     const Eigen::MatrixXd &r = window.value().returns;
+    // Columns by one hash map rather than a scan of the assets per holding: the window reruns
+    // this on every edit of a large book. The first of a name, as assetIndex gives it.
+    std::unordered_map<std::string_view, Eigen::Index> column;
+    column.reserve(prices.assets.size());
+    for (std::size_t a = 0; a < prices.assets.size(); ++a)
+        column.emplace(prices.assets[a], static_cast<Eigen::Index>(a));
+    const Eigen::Index lastRow = prices.prices.rows() - 1;
     Eigen::VectorXd pnl = Eigen::VectorXd::Zero(r.rows());
-    for (const auto &h : holdings)
-        pnl += holdingExposure(h, prices) * r.col(prices.assetIndex(h.asset));
+    for (const auto &h : holdings) {
+        const Eigen::Index c = column.at(h.asset);
+        // holdingExposure (holdings.h) with the column already found.
+        const double exposure = h.value ? *h.value : h.quantity * (h.priceOverride ? *h.priceOverride : prices.prices(lastRow, c));
+        pnl += exposure * r.col(c);
+    }
     // Row j of the window is the return ending on date dates[T − N + j].
     const std::size_t firstDate = prices.dates.size() - static_cast<std::size_t>(r.rows());
     std::vector<Eigen::Index> order(static_cast<std::size_t>(r.rows()));
