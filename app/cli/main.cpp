@@ -13,6 +13,7 @@
 #include "tailwise/prices.h"
 #include "tailwise/risk.h"
 
+#include <chrono>
 #include <cstdio>
 #include <optional>
 #include <string>
@@ -55,6 +56,10 @@ std::string messageFor(const tailwise::Error &error)
 int runVar(const std::vector<std::string> &args)
 {
     using namespace tailwise;
+    const auto started = std::chrono::steady_clock::now();
+    auto msSinceStart = [&] {
+        return std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - started).count();
+    };
     // A workbook's stored assumptions are the starting point; the options given override them.
     std::optional<ui::WorkbookContents> workbook;
     if (const auto path = cli::workbookOption(args)) {
@@ -75,20 +80,27 @@ int runVar(const std::vector<std::string> &args)
     }
     Result<RiskReport> report = Error{};
     Result<cli::ReportExtras> extras = cli::ReportExtras{};
+    cli::RunTimings timings;
+    timings.simulated = req.assumptions.model == RiskModel::MonteCarlo;
+    RunControl control;
+    control.timings = &timings.stages;
     if (req.single) {
-        report = computeSinglePositionRisk(*req.single, req.assumptions);
+        report = computeSinglePositionRisk(*req.single, req.assumptions, control);
     } else if (workbook) {
-        report = computeRisk(workbook->prices, workbook->holdings, req.assumptions);
+        timings.loadMs = msSinceStart(); // the workbook was read before the options were parsed
+        report = computeRisk(workbook->prices, workbook->holdings, req.assumptions, control);
         if (report)
             extras = cli::computeExtras(req.models, workbook->prices, workbook->holdings, req.assumptions);
     } else {
+        const auto loading = std::chrono::steady_clock::now();
         auto prices = readPriceCsv(req.pricesPath);
         if (!prices)
             return fail(exitBadInput, prices.error().message);
         auto holdings = readHoldingsCsv(req.holdingsPath, &prices.value());
         if (!holdings)
             return fail(exitBadInput, holdings.error().message);
-        report = computeRisk(prices.value(), holdings.value(), req.assumptions);
+        timings.loadMs = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - loading).count();
+        report = computeRisk(prices.value(), holdings.value(), req.assumptions, control);
         if (report)
             extras = cli::computeExtras(req.models, prices.value(), holdings.value(), req.assumptions);
     }
@@ -97,8 +109,11 @@ int runVar(const std::vector<std::string> &args)
     if (!extras)
         return fail(exitBadInput, messageFor(extras.error()));
     const bool single = req.single.has_value();
-    const std::string text = req.json ? cli::reportJson(report.value(), single, extras.value())
-                                      : cli::reportText(report.value(), single, extras.value());
+    std::optional<cli::RunTimings> shownTimings;
+    if (req.timings)
+        shownTimings = timings;
+    const std::string text = req.json ? cli::reportJson(report.value(), single, extras.value(), shownTimings)
+                                      : cli::reportText(report.value(), single, extras.value(), shownTimings);
     std::fputs(text.c_str(), stdout);
     if (req.json)
         for (const auto &w : report.value().warnings)

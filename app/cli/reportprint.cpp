@@ -45,7 +45,8 @@ std::string methodWords(const RiskReport &r)
 
 } // namespace
 
-std::string reportText(const RiskReport &r, bool single, const ReportExtras &extras)
+std::string reportText(const RiskReport &r, bool single, const ReportExtras &extras,
+                       const std::optional<RunTimings> &timings)
 {
     const auto &a = r.assumptions;
     std::string out;
@@ -110,10 +111,18 @@ std::string reportText(const RiskReport &r, bool single, const ReportExtras &ext
            + confidenceText(1.0 - a.confidence) + " of horizons if the model holds. " + modelCaution(r.model.used)
            + " Figures are estimates from past data under the model's assumptions, for information only and not "
            "advice; regulatory use follows local rules and approved models.\n";
+    if (timings) {
+        out += "\nTimings (ms): load " + fixed(timings->loadMs, 1) + ", estimate " + fixed(timings->stages.estimateMs, 1)
+               + ", risk " + fixed(timings->stages.riskMs, 1);
+        if (timings->simulated)
+            out += ", simulate " + fixed(timings->stages.simulateMs, 1);
+        out += "\n";
+    }
     return out;
 }
 
-std::string reportJson(const RiskReport &r, bool single, const ReportExtras &extras)
+std::string reportJson(const RiskReport &r, bool single, const ReportExtras &extras,
+                       const std::optional<RunTimings> &timings)
 {
     const auto &a = r.assumptions;
     JsonWriter j;
@@ -165,6 +174,15 @@ std::string reportJson(const RiskReport &r, bool single, const ReportExtras &ext
     }
     j.endArray();
     writeExtrasJson(j, extras);
+    if (timings) {
+        j.key("timings_ms").beginObject();
+        j.key("load").value(timings->loadMs);
+        j.key("estimate").value(timings->stages.estimateMs);
+        j.key("risk").value(timings->stages.riskMs);
+        if (timings->simulated)
+            j.key("simulate").value(timings->stages.simulateMs);
+        j.endObject();
+    }
     j.key("warnings").beginArray();
     for (const auto &w : r.warnings)
         j.value(w);

@@ -35,6 +35,10 @@ Result<VarRequest> parseVarOptions(const std::vector<std::string> &args, const A
             request.json = true;
             continue;
         }
+        if (option == "--timings") {
+            request.timings = true;
+            continue;
+        }
         if (option.rfind("--", 0) != 0)
             return usage(option, "unexpected argument: options start with '--' (see tailwise-cli var --help)");
         if (isModelFlag(option)) {
@@ -195,6 +199,8 @@ Assumptions:
 )" + modelHelpText() + R"(
 Output:
   --json               one JSON object instead of the readable report
+  --timings            add the wall time of each stage in ms (JSON: "timings_ms" with load,
+                       estimate, risk and, for monte-carlo, simulate)
   --help               this text
 
 Exit status: 0 success, 1 bad input data (the message names file, line and column),

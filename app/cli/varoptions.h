@@ -22,6 +22,7 @@ struct VarRequest {
     Assumptions assumptions;
     ModelRequest models; // --model parameters typed, --trade, --scenario, --worst-days
     bool json = false;
+    bool timings = false; // --timings: wall time of each stage in the output
     bool help = false;
 };
 

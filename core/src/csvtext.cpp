@@ -5,6 +5,16 @@
 #include <cstdio>
 #include <filesystem>
 #include <system_error>
+#include <utility>
+
+#ifdef TAILWISE_HAVE_FAST_FLOAT
+#include <fast_float/fast_float.h>
+#endif
+
+#include <fcntl.h>
+#include <sys/mman.h>
+#include <sys/stat.h>
+#include <unistd.h>
 
 namespace tailwise::csv {
 
@@ -120,10 +130,36 @@ std::optional<double> parseNumber(std::string_view text)
     if (text.front() == '+')
         text.remove_prefix(1);
     double value = 0.0;
-    const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
-    if (ec != std::errc() || end != text.data() + text.size() || !std::isfinite(value))
+    const char *const last = text.data() + text.size();
+#ifdef TAILWISE_HAVE_FAST_FLOAT
+    // fast_float (Lemire, "Number parsing at a gigabyte per second", Software: Practice and
+    // Experience 51(8), 2021 (mem)) rounds correctly, as std::from_chars does, about twice as fast
+    // here. Its answer is taken when it is a normal finite number; zero, subnormals, overflow and
+    // errors go to std::from_chars, so the refusals (out of range, not a number) stay the same.
+    {
+        const auto [end, ec] = fast_float::from_chars(text.data(), last, value);
+        if (ec == std::errc() && end == last && std::isnormal(value))
+            return value;
+    }
+#endif
+    const auto [end, ec] = std::from_chars(text.data(), last, value);
+    if (ec != std::errc() || end != last || !std::isfinite(value))
         return std::nullopt;
     return value;
+}
+
+const char *parsePositivePrefix(const char *first, const char *last, double &value)
+{
+    if (first == last || *first == '-' || *first == '+')
+        return nullptr;
+#ifdef TAILWISE_HAVE_FAST_FLOAT
+    const auto [end, ec] = fast_float::from_chars(first, last, value);
+#else
+    const auto [end, ec] = std::from_chars(first, last, value);
+#endif
+    if (ec != std::errc() || !std::isnormal(value) || value <= 0.0)
+        return nullptr;
+    return end;
 }
 
 std::string quoteForMessage(std::string_view text)
@@ -160,9 +196,12 @@ Result<std::string> readFileText(const std::string &path, std::size_t maxBytes)
     if (!file)
         return fileError(ErrorKind::FileUnreadable, path, 0, 0, "the file cannot be opened for reading");
     std::string text;
-    if (!ec)
-        text.reserve(static_cast<std::size_t>(size));
-    char buffer[1 << 16];
+    if (!ec) {
+        // Straight into the string: a large file is not copied a second time.
+        text.resize(static_cast<std::size_t>(size));
+        text.resize(std::fread(text.data(), 1, text.size(), file));
+    }
+    char buffer[1 << 16]; // the rest, if the file grew since its size was taken
     std::size_t got = 0;
     while ((got = std::fread(buffer, 1, sizeof buffer, file)) > 0) {
         text.append(buffer, got);
@@ -176,6 +215,46 @@ Result<std::string> readFileText(const std::string &path, std::size_t maxBytes)
     if (failed)
         return fileError(ErrorKind::FileUnreadable, path, 0, 0, "the file could not be read to the end");
     return text;
+}
+
+Result<FileText> FileText::open(const std::string &path, std::size_t maxBytes)
+{
+    namespace fs = std::filesystem;
+    std::error_code ec;
+    const fs::file_status status = fs::status(path, ec);
+    const bool regular = !ec && fs::is_regular_file(status);
+    const auto size = regular ? fs::file_size(path, ec) : 0;
+    FileText out;
+    if (regular && !ec && size > 0 && size <= maxBytes) {
+        const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
+        if (fd >= 0) {
+            void *mapped = ::mmap(nullptr, static_cast<std::size_t>(size), PROT_READ, MAP_PRIVATE | MAP_POPULATE, fd, 0);
+            ::close(fd); // the mapping keeps the file
+            if (mapped != MAP_FAILED) {
+                out.m_mapped = static_cast<const char *>(mapped);
+                out.m_size = static_cast<std::size_t>(size);
+                return out;
+            }
+        }
+    }
+    // Everything else, including every error, as readFileText gives it.
+    auto text = readFileText(path, maxBytes);
+    if (!text)
+        return text.error();
+    out.m_read = std::move(text).value();
+    return out;
+}
+
+FileText::FileText(FileText &&other) noexcept
+    : m_mapped(std::exchange(other.m_mapped, nullptr)), m_size(std::exchange(other.m_size, 0)),
+      m_read(std::move(other.m_read))
+{
+}
+
+FileText::~FileText()
+{
+    if (m_mapped)
+        ::munmap(const_cast<char *>(m_mapped), m_size);
 }
 
 } // namespace tailwise::csv

@@ -67,6 +67,11 @@ int forEachCell(std::string_view line, F &&onCell)
 
 // A finite decimal number, the whole cell; nullopt otherwise (NaN and infinity are refused).
 std::optional<double> parseNumber(std::string_view text);
+// The fast path of a reader: a number at the start of [first, last) with no blank, sign or other
+// decoration before it. Returns where it ends and sets `value` when that number is normal and
+// positive (the value parseNumber gives for the same text); nullptr otherwise, and the caller
+// goes the general way, which gives the message.
+const char *parsePositivePrefix(const char *first, const char *last, double &value);
 bool isNonFiniteLiteral(std::string_view text);
 
 // Describes a cell's content for a message: "\"abc\"", or "an empty cell"; long text is cut.
@@ -75,5 +80,24 @@ std::string quoteForMessage(std::string_view text);
 // Reads a whole file as text. Errors: FileUnreadable for a missing file, a folder, an unreadable
 // file, or one over `maxBytes`.
 Result<std::string> readFileText(const std::string &path, std::size_t maxBytes);
+
+// A whole file's text without copying it: a read-only mapping of the file (the pages come from
+// the page cache), or the text read into memory where a mapping is not possible (an empty file, a
+// pipe). Same checks and errors as readFileText. Move-only.
+class FileText {
+public:
+    static Result<FileText> open(const std::string &path, std::size_t maxBytes);
+    FileText(FileText &&other) noexcept;
+    FileText &operator=(FileText &&) = delete;
+    FileText(const FileText &) = delete;
+    ~FileText();
+    std::string_view text() const { return m_mapped ? std::string_view(m_mapped, m_size) : std::string_view(m_read); }
+
+private:
+    FileText() = default;
+    const char *m_mapped = nullptr;
+    std::size_t m_size = 0;
+    std::string m_read;
+};
 
 } // namespace tailwise::csv

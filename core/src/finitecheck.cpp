@@ -10,10 +10,13 @@ namespace {
 bool finite(double v) { return std::isfinite(v); }
 bool finite(const std::optional<double> &v) { return !v || std::isfinite(*v); }
 
+// Every entry finite iff Σ 0·x is 0: 0·x is 0 for a finite x and NaN for an infinite or NaN one,
+// and a NaN survives the sum (IEEE 754). A vectorised sum reads a large window several times
+// faster than allFinite's entry-by-entry test, which matters on every edit of a large book.
 template <class Derived>
 bool finite(const Eigen::DenseBase<Derived> &m)
 {
-    return m.size() == 0 || m.allFinite();
+    return m.size() == 0 || (m.derived().array() * 0.0).sum() == 0.0;
 }
 
 Error tooLarge(const std::string &what)
@@ -34,7 +37,7 @@ Status requireFiniteInputs(const Eigen::MatrixXd &heldReturns, const Eigen::Vect
                               "the exposure of \"" + asset
                                   + "\" (quantity × price) is too large to compute (beyond about 1e308): check its "
                                     "quantity and price");
-        if (i < heldReturns.cols() && !heldReturns.col(i).allFinite()) {
+        if (i < heldReturns.cols() && !finite(heldReturns.col(i))) {
             const std::string place = pricesSource.empty() ? std::string("prices") : pricesSource;
             return fileError(ErrorKind::Numerical, pricesSource, 0, 0,
                              "the daily returns of \"" + asset

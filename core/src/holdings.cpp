@@ -4,6 +4,7 @@
 
 #include <charconv>
 #include <unordered_map>
+#include <unordered_set>
 
 namespace tailwise {
 
@@ -214,15 +215,18 @@ double holdingExposure(const Holding &holding, const PriceHistory &prices)
 
 Status checkHoldings(const Holdings &holdings, const PriceHistory &prices)
 {
-    std::unordered_map<std::string, std::size_t> seen;
+    // One hash look-up per holding rather than a scan of the assets: a large book is checked on
+    // every edit in the window.
+    const std::unordered_set<std::string_view> known(prices.assets.begin(), prices.assets.end());
+    std::unordered_map<std::string_view, std::size_t> seen;
     for (std::size_t i = 0; i < holdings.size(); ++i) {
         const auto &h = holdings[i];
-        const std::string row = "holding " + std::to_string(i + 1);
-        if (prices.assetIndex(h.asset) < 0)
-            return fieldError(ErrorKind::Reference, row, "the asset \"" + h.asset + "\" is not in the price history");
+        if (!known.contains(h.asset))
+            return fieldError(ErrorKind::Reference, "holding " + std::to_string(i + 1),
+                              "the asset \"" + h.asset + "\" is not in the price history");
         const auto [it, inserted] = seen.emplace(h.asset, i);
         if (!inserted)
-            return fieldError(ErrorKind::Reference, row,
+            return fieldError(ErrorKind::Reference, "holding " + std::to_string(i + 1),
                               "the asset \"" + h.asset + "\" is already held in holding " + std::to_string(it->second + 1));
     }
     return Done{};

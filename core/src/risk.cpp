@@ -9,12 +9,23 @@
 #include "tailwise/simulate.h"
 #include "tailwise/studentt.h"
 
+#include <chrono>
 #include <cmath>
 #include <span>
+#include <string_view>
+#include <unordered_map>
+#include <vector>
 
 namespace tailwise {
 
 namespace {
+
+using Clock = std::chrono::steady_clock;
+
+double msBetween(Clock::time_point from, Clock::time_point to)
+{
+    return std::chrono::duration<double, std::milli>(to - from).count();
+}
 
 // Fills the fields that follow from exposures, moments and assumptions alone.
 void fillFigures(RiskReport &report, const Eigen::VectorXd &exposures, const Eigen::MatrixXd &cov,
@@ -167,8 +178,11 @@ Status applyModel(RiskReport &report, const RunControl &control)
             settings.dof = chooseDof(report, "monte-carlo");
             report.model.dof = settings.dof;
         }
+        const auto started = Clock::now();
         auto mc = simulateVarEs(report.exposures, report.moments.covariance, report.moments.mean, a.horizonDays,
                                 a.confidence, settings, control);
+        if (control.timings)
+            control.timings->simulateMs = msBetween(started, Clock::now());
         if (!mc)
             return mc.error();
         report.model.used = RiskModel::MonteCarlo;
@@ -201,10 +215,25 @@ Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdi
 
 namespace {
 
+// Each holding's column in the price history (checkHoldings has made sure there is one), by one
+// hash map instead of a scan of the assets per holding: a large book is priced on every edit.
+std::vector<Eigen::Index> heldColumns(const PriceHistory &prices, const Holdings &holdings)
+{
+    std::unordered_map<std::string_view, Eigen::Index> column;
+    column.reserve(prices.assets.size());
+    for (std::size_t a = 0; a < prices.assets.size(); ++a)
+        column.emplace(prices.assets[a], static_cast<Eigen::Index>(a)); // the first of a name, as assetIndex
+    std::vector<Eigen::Index> out;
+    out.reserve(holdings.size());
+    for (const auto &h : holdings)
+        out.push_back(column.at(h.asset));
+    return out;
+}
+
 // The window of the held assets' returns and its moments: from the cache when the key matches.
 Result<const EstimateEntry *> heldEstimate(const PriceHistory &prices, const Holdings &holdings,
-                                           const Assumptions &assumptions, EstimateCache &cache,
-                                           std::uint64_t pricesRevision)
+                                           const std::vector<Eigen::Index> &columns, const Assumptions &assumptions,
+                                           EstimateCache &cache, std::uint64_t pricesRevision)
 {
     EstimateKey key{pricesRevision, {}, assumptions.returns, assumptions.window,
                     assumptions.estimator, assumptions.lambda, assumptions.mean};
@@ -221,7 +250,7 @@ Result<const EstimateEntry *> heldEstimate(const PriceHistory &prices, const Hol
     EstimateEntry entry;
     entry.heldReturns.resize(window.value().returns.rows(), n);
     for (Eigen::Index i = 0; i < n; ++i)
-        entry.heldReturns.col(i) = window.value().returns.col(prices.assetIndex(holdings[static_cast<std::size_t>(i)].asset));
+        entry.heldReturns.col(i) = window.value().returns.col(columns[static_cast<std::size_t>(i)]);
     entry.windowFirst = window.value().firstDate;
     entry.windowLast = window.value().lastDate;
     entry.moments = estimateMoments(entry.heldReturns, assumptions.estimator, assumptions.lambda, assumptions.mean);
@@ -240,9 +269,14 @@ Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdi
         return fieldError(ErrorKind::InsufficientData, "holdings", "the portfolio has no holdings");
     if (auto ok = checkHoldings(holdings, prices); !ok)
         return ok.error();
-    auto estimate = heldEstimate(prices, holdings, assumptions, cache, pricesRevision);
+    const auto started = Clock::now();
+    if (control.timings)
+        *control.timings = StageTimings{};
+    const std::vector<Eigen::Index> columns = heldColumns(prices, holdings);
+    auto estimate = heldEstimate(prices, holdings, columns, assumptions, cache, pricesRevision);
     if (!estimate)
         return estimate.error();
+    const auto estimated = Clock::now();
     const EstimateEntry &entry = *estimate.value();
 
     const Eigen::Index n = static_cast<Eigen::Index>(holdings.size());
@@ -252,10 +286,13 @@ Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdi
     report.holdings.resize(holdings.size());
     for (Eigen::Index i = 0; i < n; ++i) {
         const auto &h = holdings[static_cast<std::size_t>(i)];
-        exposures(i) = holdingExposure(h, prices);
+        // holdingExposure and holdingPrice (holdings.h), with the column already found.
+        const double price = h.priceOverride ? *h.priceOverride
+                                             : prices.prices(prices.prices.rows() - 1, columns[static_cast<std::size_t>(i)]);
+        exposures(i) = h.value ? *h.value : h.quantity * price;
         auto &hr = report.holdings[static_cast<std::size_t>(i)];
         hr.asset = h.asset;
-        hr.price = h.value ? 0.0 : holdingPrice(h, prices);
+        hr.price = h.value ? 0.0 : price;
         hr.quantity = h.value ? 0.0 : h.quantity;
     }
     if (auto ok = requireFiniteInputs(entry.heldReturns, exposures, holdings, prices.sourceName); !ok)
@@ -276,6 +313,10 @@ Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdi
     finishFigures(report);
     if (auto ok = requireFiniteReport(report); !ok)
         return ok.error();
+    if (control.timings) {
+        control.timings->estimateMs = msBetween(started, estimated);
+        control.timings->riskMs = msBetween(estimated, Clock::now()) - control.timings->simulateMs;
+    }
     return report;
 }
 
@@ -291,6 +332,9 @@ Result<RiskReport> computeSinglePositionRisk(const SinglePosition &position, con
         return ok.error();
     // Express the position as one asset with daily moments S/√N and M/N, so that the general
     // path gives σ_h = S√(H/N)·|V| and μ_h = M·H/N·V (parametric.h).
+    const auto started = Clock::now();
+    if (control.timings)
+        *control.timings = StageTimings{};
     auto moments = singlePositionMoments(position, 1, assumptions.daysPerYear);
     if (!moments)
         return moments.error();
@@ -313,6 +357,8 @@ Result<RiskReport> computeSinglePositionRisk(const SinglePosition &position, con
     finishFigures(report);
     if (auto ok = requireFiniteReport(report); !ok)
         return ok.error();
+    if (control.timings) // no estimate: the moments are given
+        control.timings->riskMs = msBetween(started, Clock::now()) - control.timings->simulateMs;
     return report;
 }
 

@@ -138,16 +138,39 @@ Result<std::vector<StressOutcome>> worstDays(const PriceHistory &prices, const H
 {
     if (auto ok = checkHoldings(holdings, prices); !ok)
         return ok.error();
-    auto window = selectWindow(prices, ReturnType::Simple, assumptions.window);
+    // The window is checked by selectWindow on a one-asset stand-in (its rules depend on the
+    // number of days alone), and the P&L is formed from the held assets' prices directly: the
+    // window reruns this on every edit, and every asset's returns would be a large new matrix.
+    PriceHistory days;
+    days.dates = prices.dates;
+    days.prices = prices.prices.leftCols(std::min<Eigen::Index>(1, prices.prices.cols()));
+    days.assets.resize(static_cast<std::size_t>(days.prices.cols()));
+    auto window = selectWindow(days, ReturnType::Simple, assumptions.window);
     if (!window)
         return window.error();
-    const Eigen::MatrixXd &r = window.value().returns;
-    Eigen::VectorXd pnl = Eigen::VectorXd::Zero(r.rows());
-    for (const auto &h : holdings)
-        pnl += holdingExposure(h, prices) * r.col(prices.assetIndex(h.asset));
+    const Eigen::Index n = window.value().returns.rows();
+    const Eigen::Index first = prices.prices.rows() - (n + 1); // the price before the first return
+    // Columns by one hash map rather than a scan of the assets per holding. The first of a name,
+    // as assetIndex gives it.
+    std::unordered_map<std::string_view, Eigen::Index> column;
+    column.reserve(prices.assets.size());
+    for (std::size_t a = 0; a < prices.assets.size(); ++a)
+        column.emplace(prices.assets[a], static_cast<Eigen::Index>(a));
+    const Eigen::Index lastRow = prices.prices.rows() - 1;
+    Eigen::VectorXd pnl = Eigen::VectorXd::Zero(n);
+    for (const auto &h : holdings) {
+        const Eigen::Index c = column.at(h.asset);
+        // holdingExposure (holdings.h) with the column already found; the simple return of
+        // returns.h, P_t / P_{t−1} − 1.
+        const double exposure = h.value ? *h.value : h.quantity * (h.priceOverride ? *h.priceOverride : prices.prices(lastRow, c));
+        const auto before = prices.prices.col(c).segment(first, n).array();
+        const auto now = prices.prices.col(c).segment(first + 1, n).array();
+        pnl += exposure * (now / before - 1.0).matrix();
+    }
+    const Eigen::Index rowsInWindow = n;
     // Row j of the window is the return ending on date dates[T − N + j].
-    const std::size_t firstDate = prices.dates.size() - static_cast<std::size_t>(r.rows());
-    std::vector<Eigen::Index> order(static_cast<std::size_t>(r.rows()));
+    const std::size_t firstDate = prices.dates.size() - static_cast<std::size_t>(rowsInWindow);
+    std::vector<Eigen::Index> order(static_cast<std::size_t>(rowsInWindow));
     std::iota(order.begin(), order.end(), Eigen::Index{0});
     std::stable_sort(order.begin(), order.end(), [&](Eigen::Index a, Eigen::Index b) { return pnl(a) < pnl(b); });
     std::vector<StressOutcome> out;

@@ -11,6 +11,7 @@
 
 #include <cmath>
 #include <string>
+#include <vector>
 
 using namespace tailwise;
 using tailwise::test::ExpectedPlace;
@@ -283,6 +284,57 @@ private slots:
         QCOMPARE(again.value().assets, r.value().assets);
         QVERIFY(again.value().dates == r.value().dates);
         QVERIFY(again.value().prices == r.value().prices); // exact: shortest round-trip form
+    }
+
+    // A file large enough to be read in chunks on several threads (over 10⁵ cells): the history
+    // and every error are those of a reading from top to bottom, whatever the chunk a row is in.
+    void largeFileReadsAsFromTopToBottom()
+    {
+        const int rows = 400, assets = 300;
+        std::string text = "date";
+        for (int a = 0; a < assets; ++a)
+            text += ",S" + std::to_string(a);
+        text += "\n";
+        std::vector<std::size_t> rowStart; // offset of each data row in `text`
+        for (int r = 0; r < rows; ++r) {
+            rowStart.push_back(text.size());
+            text += toIso(Date{dateFromCivil(2020, 1, 1).serial + r});
+            for (int a = 0; a < assets; ++a) {
+                // A gap in every chunk, one on a chunk's first row, and one on the first kept row.
+                const bool gap = (a == 7 && (r == 1 || r == rows / 2 || r == 3 * rows / 4)) || (a == 9 && r == 0);
+                text += ',';
+                if (!gap)
+                    text += std::to_string(1.0 + 0.001 * r + a);
+            }
+            text += "\n";
+        }
+        auto whole = parse(text);
+        QVERIFY2(whole.ok(), whole.ok() ? "" : whole.error().message.c_str());
+        const PriceHistory &h = whole.value();
+        QCOMPARE(h.dayCount(), rows - 1); // row 0 dropped: asset 9 had no price yet
+        QCOMPARE(h.prices(0, 7), 1.0 + 0.001 * 0 + 7); // carried from the dropped row 0
+        QCOMPARE(h.prices(rows / 2 - 1, 7), 1.0 + 0.001 * (rows / 2 - 1) + 7);
+        QCOMPARE(h.prices(3 * rows / 4 - 1, 7), 1.0 + 0.001 * (3 * rows / 4 - 1) + 7);
+        QCOMPARE(h.prices(rows - 2, assets - 1), 1.0 + 0.001 * (rows - 1) + assets - 1);
+        QVERIFY2(hasWarning(h, "3 empty prices were filled"), qPrintable(warningsText(h)));
+
+        // Line L of the file holds data row L − 2. Two bad rows, one in each half: the first wins.
+        auto withBadCell = [&](const std::string &t, int row, const std::string &cell) {
+            const std::size_t at = t.find(',', rowStart[static_cast<std::size_t>(row)]) + 1;
+            return t.substr(0, at) + cell + t.substr(t.find(',', at));
+        };
+        const std::string twoBad = withBadCell(withBadCell(text, 3 * rows / 4, "x"), rows / 2 - 5, "-1");
+        TW_EXPECT_ERROR(parse(twoBad), ErrorKind::Value, src, rows / 2 - 5 + 2, 2,
+                        "expected a price greater than zero, found -1");
+        // A date out of order on the first row of the second half comes before a bad cell after it.
+        const std::string later = withBadCell(text, rows / 2 + 3, "abc");
+        const std::size_t dateAt = rowStart[rows / 2];
+        const std::string unordered = later.substr(0, dateAt) + "2020-01-01" + later.substr(dateAt + 10);
+        TW_EXPECT_ERROR(parse(unordered), ErrorKind::Format, src, rows / 2 + 2, 1,
+                        "dates must strictly increase: 2020-01-01 does not come after");
+        // A bad cell on that same row, after an ordered date, is reported as it is.
+        TW_EXPECT_ERROR(parse(withBadCell(text, rows / 2, "nan")), ErrorKind::Value, src, rows / 2 + 2, 2,
+                        "expected a finite price");
     }
 
     void realDataSetReads()

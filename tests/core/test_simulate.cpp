@@ -100,6 +100,29 @@ private slots:
         QCOMPARE(f.simulations, 200000);
     }
 
+    // One asset of unit variance: the losses are the normals themselves, so their quantiles and
+    // tail means must be the standard normal's (parametric.h) at every level, including 0.9999,
+    // whose quantile 3.719 lies beyond the ziggurat's base layer (r = 3.654), in its tail draws.
+    void unitNormalDrawsHaveNormalQuantiles_data()
+    {
+        QTest::addColumn<double>("confidence");
+        for (double c : {0.6, 0.9, 0.99, 0.999, 0.9999})
+            QTest::newRow(qPrintable(QString::number(c))) << c;
+    }
+    void unitNormalDrawsHaveNormalQuantiles()
+    {
+        QFETCH(double, confidence);
+        const Eigen::VectorXd e = Eigen::VectorXd::Ones(1);
+        const Eigen::MatrixXd cov = Eigen::MatrixXd::Identity(1, 1);
+        RunControl control;
+        auto r = simulateVarEs(e, cov, Eigen::VectorXd::Zero(1), 1, confidence,
+                               SimulationSettings{2000000, 5, std::nullopt}, control);
+        QVERIFY(r.ok());
+        const VarEs closed = normalVarEs(HorizonMoments{0.0, 1.0}, confidence);
+        TW_CLOSE_ABS(r.value().figures.var, closed.var, 4.0 * r.value().varStandardError);
+        TW_CLOSE_ABS(r.value().figures.es, closed.es, 4.0 * r.value().esStandardError);
+    }
+
     void horizonScalesTheDraws()
     {
         // 10-day normal VaR = √10 z σ − 10 μ (square-root of time, REFERENCE-VALUES §9 factor 3.16228).

@@ -12,11 +12,12 @@
 // Reproducibility: the draws are cut into fixed blocks of `blockSize` consecutive draws; block b
 // has its own 64-bit Mersenne Twister (std::mt19937_64, whose output the C++ standard fixes)
 // seeded from (seed, b) through the SplitMix64 mixer (Steele, Lea & Flood (2014), "Fast splittable
-// pseudorandom number generators", OOPSLA; (mem)). Normals come from Marsaglia's polar method (Marsaglia
-// & Bray (1964), SIAM Review 6(3), 260–264 (mem)) and χ² from Marsaglia & Tsang's gamma method (2000, ACM
-// TOMS 26(3), 363–372 (mem)), both written here rather than taken from <random>'s implementation-defined
-// distributions. Each draw is stored at its own index, so the figures are identical for any number
-// of threads, and identical for the same seed and inputs.
+// pseudorandom number generators", OOPSLA; (mem)). Normals come from Marsaglia & Tsang's ziggurat
+// with 256 layers (2000, J. Statistical Software 5(8) (mem)) — about one engine word per normal —
+// and χ² from Marsaglia & Tsang's gamma method (2000, ACM TOMS 26(3), 363–372 (mem)), both written
+// here rather than taken from <random>'s implementation-defined distributions. Each draw is stored
+// at its own index, so the figures are identical for any number of threads, and identical for the
+// same seed and inputs.
 //
 // Standard error of the VaR by batch means: the draws in draw order are split into 20 equal batches,
 // each batch's VaR is computed the same way, and SE = sd(batch VaRs)/√20 (e.g. Glasserman (2003),
