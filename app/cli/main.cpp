@@ -96,6 +96,8 @@ int runVar(const std::vector<std::string> &args)
         return fail(exitBadInput, messageFor(report.error()));
     if (!extras)
         return fail(exitBadInput, messageFor(extras.error()));
+    if (workbook)
+        extras.value().currency = workbook->currency.toStdString();
     const bool single = req.single.has_value();
     const std::string text = req.json ? cli::reportJson(report.value(), single, extras.value())
                                       : cli::reportText(report.value(), single, extras.value());
