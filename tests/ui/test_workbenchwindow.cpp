@@ -150,6 +150,49 @@ private slots:
         QCOMPARE(chart.confidence, 0.975);
     }
 
+    // The sample states EUR. The currency field at the top of the assumptions pane shows it, the
+    // loss-tail chart's money axis names it; a text that is not a code is refused with the reason
+    // and changes nothing; a good one is one undo step, and undo brings the old one back.
+    void currencyEditIsOneUndoStepAndNamesTheAxis()
+    {
+        auto w = sampleWindow();
+        w->show();
+        QVERIFY(QTest::qWaitForWindowExposed(w.get()));
+        Workbook &wb = w->workbook();
+        auto *field = w->findChild<QLineEdit *>(QStringLiteral("workbookCurrency"));
+        QVERIFY(field);
+        QCOMPARE(field->text(), QStringLiteral("EUR"));
+        QCOMPARE(wb.currency(), QStringLiteral("EUR"));
+        const auto axis = [&] { return w->chartTabs()->lossTailChart()->data().xLabel; };
+        QTRY_VERIFY2(axis().contains(QStringLiteral("(EUR;")), qPrintable(axis()));
+        const int steps = wb.undoStack()->count();
+
+        field->setFocus();
+        field->selectAll();
+        QTest::keyClicks(field, QStringLiteral("dollars"));
+        QTest::keyClick(field, Qt::Key_Return);
+        QCOMPARE(wb.currency(), QStringLiteral("EUR"));
+        QCOMPARE(wb.undoStack()->count(), steps);
+        bool told = false;
+        for (QLabel *label : field->parentWidget()->findChildren<QLabel *>())
+            told = told || (label->isVisible() && label->text().contains(QStringLiteral("three capital letters")));
+        QVERIFY2(told, "the refusal says what a code is");
+
+        field->selectAll();
+        QTest::keyClicks(field, QStringLiteral("USD"));
+        QTest::keyClick(field, Qt::Key_Return);
+        QCOMPARE(wb.currency(), QStringLiteral("USD"));
+        QCOMPARE(wb.undoStack()->count(), steps + 1);
+        QCOMPARE(wb.undoStack()->undoText(), QStringLiteral("Set currency"));
+        QVERIFY(w->isWindowModified());
+        QTRY_VERIFY2(axis().contains(QStringLiteral("(USD;")), qPrintable(axis()));
+
+        w->actions().get(Actions::Undo)->trigger();
+        QCOMPARE(wb.currency(), QStringLiteral("EUR"));
+        QCOMPARE(field->text(), QStringLiteral("EUR"));
+        QTRY_VERIFY2(axis().contains(QStringLiteral("(EUR;")), qPrintable(axis()));
+    }
+
     void sliderDragIsOneUndoStep()
     {
         auto w = sampleWindow();
