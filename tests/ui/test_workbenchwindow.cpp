@@ -186,6 +186,9 @@ private slots:
         QCOMPARE(wb.undoStack()->undoText(), QStringLiteral("Set currency"));
         QVERIFY(w->isWindowModified());
         QTRY_VERIFY2(axis().contains(QStringLiteral("(USD;")), qPrintable(axis()));
+        auto *beside = w->findChild<QLabel *>(QStringLiteral("headlineCurrency"));
+        QVERIFY(beside);
+        QCOMPARE(beside->text(), QStringLiteral("USD")); // beside the portfolio value in the headline
 
         w->actions().get(Actions::Undo)->trigger();
         QCOMPARE(wb.currency(), QStringLiteral("EUR"));
