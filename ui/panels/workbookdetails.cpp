@@ -18,7 +18,7 @@ WorkbookDetails::WorkbookDetails(Workbook &workbook, QWidget *parent) : QWidget(
     form->setLabelAlignment(Qt::AlignRight | Qt::AlignVCenter);
 
     m_title = new QLineEdit(this);
-    m_title->setObjectName(QStringLiteral("workbookTitle"));
+    m_title->setObjectName(QStringLiteral("workbookTitleEdit"));
     m_title->setPlaceholderText(tr("untitled"));
     m_title->setToolTip(tr("The workbook's title, shown in the window title and on reports."));
     form->addRow(tr("Title"), m_title);
