@@ -195,6 +195,19 @@ private slots:
         QCOMPARE(field->text(), QString());
         QCOMPARE(beside->text(), QString());
         QTRY_VERIFY2(axis().contains(QStringLiteral("(money;")), qPrintable(axis()));
+
+        // The title beside it: one undo step too, shown in the headline.
+        auto *title = w->findChild<QLineEdit *>(QStringLiteral("workbookTitleEdit"));
+        QVERIFY(title);
+        title->setFocus();
+        title->selectAll();
+        QTest::keyClicks(title, QStringLiteral("Larchmere Balanced Fund"));
+        QTest::keyClick(title, Qt::Key_Return);
+        QCOMPARE(wb.title(), QStringLiteral("Larchmere Balanced Fund"));
+        QCOMPARE(wb.undoStack()->undoText(), QStringLiteral("Rename workbook"));
+        w->actions().get(Actions::Undo)->trigger();
+        QCOMPARE(wb.title(), QString());
+        QCOMPARE(title->text(), QString());
     }
 
     void sliderDragIsOneUndoStep()
