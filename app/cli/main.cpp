@@ -108,6 +108,8 @@ int runVar(const std::vector<std::string> &args)
         return fail(exitBadInput, messageFor(report.error()));
     if (!extras)
         return fail(exitBadInput, messageFor(extras.error()));
+    if (workbook)
+        extras.value().currency = workbook->currency.toStdString();
     const bool single = req.single.has_value();
     std::optional<cli::RunTimings> shownTimings;
     if (req.timings)

@@ -2,6 +2,7 @@
 
 #include "varoptions.h"
 
+#include "document/currencycode.h"
 #include "document/workbookfile.h"
 
 #include "tailwise/backtest.h"
@@ -81,11 +82,15 @@ std::string packHelpText()
     return R"(tailwise-cli pack: make a workbook from a price history and holdings
 
 Usage:
-  tailwise-cli pack --prices FILE --holdings FILE [assumption options] [--title T] --out FILE.tailwise
+  tailwise-cli pack --prices FILE --holdings FILE [assumption options] [--title T]
+                    [--currency CODE] --out FILE.tailwise
 
   --prices FILE        daily price history, CSV (as for tailwise-cli var)
   --holdings FILE      holdings, CSV (as for tailwise-cli var)
   --title T            the workbook's title, shown in the window and on reports
+  --currency CODE      the currency the prices and values are in, three capital letters
+                       (e.g. EUR, GBP, USD); named beside money figures and on money axes.
+                       Only a label: nothing is converted. Not stated when not given
   --out FILE           the workbook to write (JSON, extension .tailwise); written atomically,
                        an existing file is replaced only when the new one is complete
   --backtest-window W  the window's backtest settings, stored when any of these three is given:
@@ -108,6 +113,7 @@ int runPackCommand(const std::vector<std::string> &args)
 {
     std::vector<std::string> varArgs;
     std::string title, out;
+    QString currency;
     std::optional<ui::BacktestSettings> backtest;
     std::vector<std::string> scenarioPaths;
     for (std::size_t i = 0; i < args.size(); ++i) {
@@ -120,6 +126,15 @@ int runPackCommand(const std::vector<std::string> &args)
             if (i + 1 >= args.size())
                 return fail(exitUsage, option + ": expected a value after the option");
             (option == "--title" ? title : out) = args[++i];
+            continue;
+        }
+        if (option == "--currency") {
+            if (i + 1 >= args.size())
+                return fail(exitUsage, option + ": expected a value after the option");
+            auto code = ui::parseCurrencyCode(QString::fromStdString(args[++i]), option);
+            if (!code)
+                return fail(exitUsage, code.error().message);
+            currency = code.value();
             continue;
         }
         if (option == "--backtest-window" || option == "--backtest-test-size" || option == "--backtest-models") {
@@ -173,6 +188,7 @@ int runPackCommand(const std::vector<std::string> &args)
 
     ui::WorkbookContents contents;
     contents.title = QString::fromStdString(title);
+    contents.currency = currency;
     contents.prices = std::move(prices).value();
     contents.holdings = std::move(holdings).value();
     contents.assumptions = req.assumptions;

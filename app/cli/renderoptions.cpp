@@ -2,6 +2,8 @@
 
 #include "optiontext.h"
 
+#include "document/currencycode.h"
+
 #include <QString>
 
 #include <algorithm>
@@ -89,7 +91,10 @@ Result<RenderOptions> parseRenderOptions(const std::vector<std::string> &args)
         } else if (option == "--caption") {
             options.caption = value;
         } else if (option == "--currency") {
-            s.print.currency = text.trimmed();
+            auto code = ui::parseCurrencyCode(text, option);
+            if (!code)
+                return code.error();
+            s.print.currency = code.value();
         }
     }
     if (options.workbookPath.empty())
@@ -132,7 +137,8 @@ Usage:
   --dpi D             PNG resolution, dots per inch (default 300; 150, 300 or 600 are usual)
   --caption TEXT      the caption under the chart, instead of the one written from the results
   --no-caption        no caption
-  --currency CODE     said on money axes, e.g. EUR (the workbook does not record its currency)
+  --currency CODE     named on money axes, e.g. EUR, instead of the workbook's own currency
+                      (default: the workbook's; "money" when it states none)
   --percent           loss-tail: the P&L axis in % of portfolio value instead of money
   --help              this text
 

@@ -49,9 +49,13 @@ std::string reportText(const RiskReport &r, bool single, const ReportExtras &ext
                        const std::optional<RunTimings> &timings)
 {
     const auto &a = r.assumptions;
+    // The currency beside each money figure of the summary, when the workbook states one.
+    const std::string unit = extras.currency.empty() ? std::string() : " " + extras.currency;
     std::string out;
     out += "Tailwise - Value-at-Risk and Expected Shortfall\n\n";
-    out += "Portfolio value     " + money(r.portfolioValue) + "\n";
+    out += "Portfolio value     " + money(r.portfolioValue) + unit + "\n";
+    if (!extras.currency.empty())
+        out += "Currency            " + extras.currency + " (every money figure; only a label, nothing is converted)\n";
     out += "Confidence          " + confidenceText(a.confidence) + "\n";
     out += "Horizon             " + horizonWords(a.horizonDays) + "\n";
     if (single) {
@@ -64,18 +68,18 @@ std::string reportText(const RiskReport &r, bool single, const ReportExtras &ext
     }
     out += modelText(r);
     out += "\n";
-    out += "Value-at-Risk       " + pad(money(r.figures.var), 16, true) + "   " + percent(r.varFraction) + " of value\n";
-    out += "Expected Shortfall  " + pad(money(r.figures.es), 16, true) + "   " + percent(r.esFraction) + " of value\n";
-    out += "Horizon mean P&L    " + pad(money(r.horizon.mean), 16, true) + "\n";
-    out += "Horizon P&L s.d.    " + pad(money(r.horizon.sd), 16, true) + "\n";
+    out += "Value-at-Risk       " + pad(money(r.figures.var), 16, true) + unit + "   " + percent(r.varFraction) + " of value\n";
+    out += "Expected Shortfall  " + pad(money(r.figures.es), 16, true) + unit + "   " + percent(r.esFraction) + " of value\n";
+    out += "Horizon mean P&L    " + pad(money(r.horizon.mean), 16, true) + unit + "\n";
+    out += "Horizon P&L s.d.    " + pad(money(r.horizon.sd), 16, true) + unit + "\n";
     if (!single) {
-        out += "Undiversified VaR   " + pad(money(r.undiversifiedVar), 16, true) + "   (sum of the holdings' own VaR)\n";
-        out += "Diversification     " + pad(money(r.diversificationBenefit), 16, true) + "   (undiversified minus portfolio VaR)\n";
+        out += "Undiversified VaR   " + pad(money(r.undiversifiedVar), 16, true) + unit + "   (sum of the holdings' own VaR)\n";
+        out += "Diversification     " + pad(money(r.diversificationBenefit), 16, true) + unit + "   (undiversified minus portfolio VaR)\n";
     }
     out += "\nIn words: over " + horizonWords(a.horizonDays) + ", the loss is not expected to exceed "
-           + money(r.figures.var) + " with " + confidenceText(a.confidence)
+           + money(r.figures.var) + unit + " with " + confidenceText(a.confidence)
            + " confidence; in the worst " + confidenceText(1.0 - a.confidence) + " of cases the average loss is "
-           + money(r.figures.es) + ".\n";
+           + money(r.figures.es) + unit + ".\n";
 
     if (!single && !r.holdings.empty()) {
         out += r.model.used == RiskModel::Normal
@@ -127,6 +131,8 @@ std::string reportJson(const RiskReport &r, bool single, const ReportExtras &ext
     const auto &a = r.assumptions;
     JsonWriter j;
     j.beginObject();
+    if (!extras.currency.empty()) // the workbook's currency code; absent when it states none
+        j.key("currency").value(extras.currency);
     j.key("portfolio_value").value(r.portfolioValue);
     j.key("confidence").value(a.confidence);
     j.key("horizon_days").value(a.horizonDays);

@@ -18,6 +18,7 @@ struct ReportExtras {
     std::vector<Trade> trades;
     std::optional<WhatIf> whatIf;
     std::optional<std::vector<StressOutcome>> stress;
+    std::string currency; // the workbook's currency code (e.g. "EUR"); empty: not stated
 };
 
 // Reads the scenario files and runs the what-if and the stress. Errors: a scenario file's error

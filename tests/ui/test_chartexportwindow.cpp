@@ -10,6 +10,7 @@
 #include "charts/chartstyle.h"
 #include "charts/contributionschart.h"
 #include "charts/tradeoffchart.h"
+#include "document/commands.h"
 #include "panels/stresspanel.h"
 #include "panels/whatifpanel.h"
 #include "export/captions.h"
@@ -78,6 +79,14 @@ void TestChartExportWindow::exporterWritesTheWindowsResults()
     QVERIFY(results->backtestChart);
     const QString caption = captionFor(ChartKind::LossTail, *results);
     QVERIFY2(caption.contains(chartstyle::money(window->workbook().report()->figures.var)), qPrintable(caption));
+    // The workbook's currency goes with the results the exporter draws, on every money axis.
+    QVERIFY(results->lossTail.xLabel.contains(QStringLiteral("(money;")));
+    QVERIFY(edit::setCurrency(window->workbook(), QStringLiteral("EUR")).ok());
+    results = exporter->currentResults();
+    QCOMPARE(results->currency, QStringLiteral("EUR"));
+    QVERIFY2(results->lossTail.xLabel.contains(QStringLiteral("(EUR;")), qPrintable(results->lossTail.xLabel));
+    QVERIFY(results->backtestChart->yLabel.contains(QStringLiteral("(EUR)")));
+    QVERIFY(results->modelsChart->yLabel.contains(QStringLiteral("(EUR)")));
 
     QTemporaryDir dir;
     for (const ChartKind kind : allChartKinds) {

@@ -150,6 +150,66 @@ private slots:
         QCOMPARE(chart.confidence, 0.975);
     }
 
+    // The sample fund imported from its CSV files states no currency: the field at the top of the
+    // assumptions pane is empty and the loss-tail chart's money axis says "money". A text that is
+    // not a code is refused with the reason and changes nothing; a good one is one undo step that
+    // the axis and the headline follow, and undo brings "money" back.
+    void currencyEditIsOneUndoStepAndNamesTheAxis()
+    {
+        auto w = sampleWindow();
+        w->show();
+        QVERIFY(QTest::qWaitForWindowExposed(w.get()));
+        Workbook &wb = w->workbook();
+        auto *field = w->findChild<QLineEdit *>(QStringLiteral("workbookCurrency"));
+        QVERIFY(field);
+        QCOMPARE(field->text(), QString());
+        QCOMPARE(wb.currency(), QString());
+        const auto axis = [&] { return w->chartTabs()->lossTailChart()->data().xLabel; };
+        QTRY_VERIFY2(axis().contains(QStringLiteral("(money;")), qPrintable(axis()));
+        const int steps = wb.undoStack()->count();
+
+        field->setFocus();
+        field->selectAll();
+        QTest::keyClicks(field, QStringLiteral("dollars"));
+        QTest::keyClick(field, Qt::Key_Return);
+        QCOMPARE(wb.currency(), QString());
+        QCOMPARE(wb.undoStack()->count(), steps);
+        bool told = false;
+        for (QLabel *label : field->parentWidget()->findChildren<QLabel *>())
+            told = told || (label->isVisible() && label->text().contains(QStringLiteral("three capital letters")));
+        QVERIFY2(told, "the refusal says what a code is");
+
+        field->selectAll();
+        QTest::keyClicks(field, QStringLiteral("EUR"));
+        QTest::keyClick(field, Qt::Key_Return);
+        QCOMPARE(wb.currency(), QStringLiteral("EUR"));
+        QCOMPARE(wb.undoStack()->count(), steps + 1);
+        QCOMPARE(wb.undoStack()->undoText(), QStringLiteral("Set currency"));
+        QTRY_VERIFY2(axis().contains(QStringLiteral("(EUR;")), qPrintable(axis()));
+        auto *beside = w->findChild<QLabel *>(QStringLiteral("headlineCurrency"));
+        QVERIFY(beside);
+        QCOMPARE(beside->text(), QStringLiteral("EUR")); // beside the portfolio value in the headline
+
+        w->actions().get(Actions::Undo)->trigger();
+        QCOMPARE(wb.currency(), QString());
+        QCOMPARE(field->text(), QString());
+        QCOMPARE(beside->text(), QString());
+        QTRY_VERIFY2(axis().contains(QStringLiteral("(money;")), qPrintable(axis()));
+
+        // The title beside it: one undo step too, shown in the headline.
+        auto *title = w->findChild<QLineEdit *>(QStringLiteral("workbookTitleEdit"));
+        QVERIFY(title);
+        title->setFocus();
+        title->selectAll();
+        QTest::keyClicks(title, QStringLiteral("Larchmere Balanced Fund"));
+        QTest::keyClick(title, Qt::Key_Return);
+        QCOMPARE(wb.title(), QStringLiteral("Larchmere Balanced Fund"));
+        QCOMPARE(wb.undoStack()->undoText(), QStringLiteral("Rename workbook"));
+        w->actions().get(Actions::Undo)->trigger();
+        QCOMPARE(wb.title(), QString());
+        QCOMPARE(title->text(), QString());
+    }
+
     void sliderDragIsOneUndoStep()
     {
         auto w = sampleWindow();

@@ -39,6 +39,7 @@ WorkbookContents sampleContents()
 {
     WorkbookContents c;
     c.title = QStringLiteral("Testfund «Ω», \"quoted\"\tand tabbed");
+    c.currency = QStringLiteral("GBP");
     c.prices.assets = {"ALPHA", "BETA \"B\"", "GAMMA, Ltd", "DELTA/Ü"};
     std::mt19937_64 rng(20261201);
     std::uniform_real_distribution<double> u(-5.0, 9.0);
@@ -88,6 +89,7 @@ QByteArray toBytes(const QJsonObject &o) { return QJsonDocument(o).toJson(); }
 void compareContents(const WorkbookContents &got, const WorkbookContents &want)
 {
     QCOMPARE(got.title, want.title);
+    QCOMPARE(got.currency, want.currency);
     QCOMPARE(got.prices.assets, want.prices.assets);
     QCOMPARE(got.prices.dates.size(), want.prices.dates.size());
     for (std::size_t i = 0; i < want.prices.dates.size(); ++i)
@@ -252,6 +254,7 @@ void TestWorkbookFile::olderFileOpensWithDefaults()
 {
     QJsonObject root = asObject(sampleContents());
     root.remove(QStringLiteral("title"));
+    root.remove(QStringLiteral("currency")); // a file from before the currency field: none stated
     root.remove(QStringLiteral("backtest"));
     root.remove(QStringLiteral("scenarios"));
     QJsonObject a;
@@ -265,6 +268,7 @@ void TestWorkbookFile::olderFileOpensWithDefaults()
     want.horizonDays = 10;
     WorkbookContents expected = sampleContents();
     expected.title.clear();
+    expected.currency.clear();
     expected.assumptions = want;
     compareContents(back.value(), expected);
     QVERIFY(!back.value().backtest);
@@ -518,6 +522,12 @@ void TestWorkbookFile::refusesBadFiles_data()
     QTest::newRow("seed negative")
         << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a["seed"] = "-1"; }); }) << V
         << QStringList{"assumptions.seed: expected a whole number"};
+    for (const char *code : {"eur", "EURO", "E1R", " EUR", "€"})
+        QTest::newRow(qPrintable(QStringLiteral("currency %1").arg(QString::fromUtf8(code))))
+            << edit([&](QJsonObject &o) { o["currency"] = QString::fromUtf8(code); }) << V
+            << QStringList{"currency: expected a currency code of three capital letters"};
+    QTest::newRow("currency not text") << edit([](QJsonObject &o) { o["currency"] = 978; }) << F
+                                       << QStringList{"currency: expected"};
     QTest::newRow("assumptions not an object") << edit([](QJsonObject &o) { o["assumptions"] = 3; }) << F
                                                << QStringList{"assumptions: expected an object, found 3"};
 }
@@ -663,6 +673,7 @@ void TestWorkbookFile::sampleWorkbookMatchesItsCsvs()
     QVERIFY(holdings.ok());
     WorkbookContents want;
     want.title = QStringLiteral("Larchmere Balanced Fund");
+    want.currency = QStringLiteral("EUR"); // the invented fund is in euros (samples/README.md)
     want.prices = prices.value();
     want.holdings = holdings.value();
     want.assumptions = wb.value().assumptions; // checked by the command-line tests

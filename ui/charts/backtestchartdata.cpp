@@ -21,7 +21,7 @@ double backtestDateKey(Date date)
     return static_cast<double>(date.serial) * 86400.0;
 }
 
-BacktestChartData buildBacktestChartData(const BacktestResult &result, const QString &modelName)
+BacktestChartData buildBacktestChartData(const BacktestResult &result, const QString &modelName, const QString &currency)
 {
     BacktestChartData d;
     d.keys.reserve(static_cast<qsizetype>(result.days.size()));
@@ -60,7 +60,7 @@ BacktestChartData buildBacktestChartData(const BacktestResult &result, const QSt
     d.varLegend = modelName.isEmpty() ? tr("−VaR forecast (%1, one day)").arg(confidence)
                                       : tr("−VaR forecast (%1, one day, %2)").arg(confidence, modelName);
     d.exceptionLegend = tr("Exception: loss beyond VaR (%1)").arg(QLocale().toString(static_cast<int>(d.exceptionDays.size())));
-    d.yLabel = tr("P&L per day (money)");
+    d.yLabel = tr("P&L per day (%1)").arg(chartstyle::moneyUnit(currency));
     if (d.keys.isEmpty())
         d.note = tr("No tested days to draw.");
     else if (d.skippedDays > 0)

@@ -31,8 +31,10 @@ struct BacktestChartData {
     QString pnlLegend, varLegend, exceptionLegend, yLabel, note;
 };
 
-// `modelName` is the model as the window names it (e.g. "Normal"), for the legend.
-BacktestChartData buildBacktestChartData(const tailwise::BacktestResult &result, const QString &modelName = {});
+// `modelName` is the model as the window names it (e.g. "Normal"), for the legend; `currency` the
+// workbook's code for the P&L axis (empty: "money").
+BacktestChartData buildBacktestChartData(const tailwise::BacktestResult &result, const QString &modelName = {},
+                                         const QString &currency = {});
 
 // The key of a date: seconds since 1970-01-01 00:00 UTC.
 double backtestDateKey(tailwise::Date date);

@@ -2,6 +2,7 @@
 
 #include <qcustomplot.h>
 
+#include <QCoreApplication>
 #include <QLocale>
 
 #include <cmath>
@@ -83,6 +84,11 @@ void stylePlot(QCustomPlot *plot)
     plot->legend->setTextColor(ink());
     plot->legend->setBorderPen(QPen(mist(), 1));
     plot->legend->setBrush(QColor(255, 255, 255, 230));
+}
+
+QString moneyUnit(const QString &currency)
+{
+    return currency.isEmpty() ? QCoreApplication::translate("chartstyle", "money") : currency;
 }
 
 QString money(double value, int decimals)

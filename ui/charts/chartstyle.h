@@ -36,6 +36,8 @@ void stylePlot(QCustomPlot *plot);
 QString money(double value, int decimals = 0);
 QString signedMoney(double value, int decimals = 0);
 QString percent(double fraction, int decimals = 1);
+// The unit a money axis names: the workbook's currency code ("EUR"), or "money" when none is stated.
+QString moneyUnit(const QString &currency);
 // A confidence as a percentage without trailing zeros: 0.975 → "97.5%", 0.99 → "99%".
 QString confidenceText(double confidence);
 

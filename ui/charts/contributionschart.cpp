@@ -171,6 +171,8 @@ void ContributionsChart::fillDiversification()
 {
     QCPAxis *keys = m_stepRect->axis(QCPAxis::atBottom);
     QCPAxis *money = m_stepRect->axis(QCPAxis::atLeft);
+    if (!m_data.stepLabel.isEmpty())
+        money->setLabel(m_data.stepLabel); // names the workbook's currency when it has one
     const double whole = m_data.undiversifiedVar;
     const double var = m_data.portfolioVar;
     m_stepBars->setData(QVector<double>{1.0, 3.0}, QVector<double>{whole, var}, true);

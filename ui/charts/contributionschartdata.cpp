@@ -56,8 +56,9 @@ ContributionsChartData buildContributionsChartData(const RiskReport &report, con
     d.hasHedges = std::any_of(d.bars.cbegin(), d.bars.cend(), [](const ContributionBar &b) { return b.hedge; });
 
     const QString conf = chartstyle::confidenceText(report.assumptions.confidence);
-    d.valueLabel = QCoreApplication::translate("ContributionsChart", "Contribution to %1 %n-day VaR (money)", nullptr,
-                                               report.assumptions.horizonDays).arg(conf);
+    d.valueLabel = QCoreApplication::translate("ContributionsChart", "Contribution to %1 %n-day VaR (%2)", nullptr,
+                                               report.assumptions.horizonDays).arg(conf, chartstyle::moneyUnit(options.currency));
+    d.stepLabel = tr("VaR (%1)").arg(chartstyle::moneyUnit(options.currency));
     d.benefitText = QCoreApplication::translate("ContributionsChart", "Diversification lowers VaR\nby %1, %2 of the\nsum of standalone VaRs")
                         .arg(chartstyle::money(d.diversificationBenefit),
                              d.undiversifiedVar != 0.0 ? chartstyle::percent(d.diversificationBenefit / d.undiversifiedVar, 1)

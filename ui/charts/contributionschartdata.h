@@ -20,6 +20,7 @@ namespace tailwise::ui {
 
 struct ContributionsOptions {
     int maxBars = 20;
+    QString currency{}; // the workbook's code, named on the money axes; empty: "money"
 };
 
 struct ContributionBar {
@@ -37,6 +38,7 @@ struct ContributionsChartData {
     double diversificationBenefit = 0.0;
     bool hasHedges = false;
     QString valueLabel;                     // axis label, with the horizon and confidence
+    QString stepLabel;                      // the step chart's money axis label
     QString benefitText;                    // the annotation, broken into short lines
 };
 

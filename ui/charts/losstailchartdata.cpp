@@ -128,7 +128,7 @@ LossTailChartData buildLossTailChartData(const RiskReport &report, const LossTai
         d.varLabel += QStringLiteral(" (") + chartstyle::percent(*report.varFraction, 2) + QStringLiteral(")");
         d.esLabel += QStringLiteral(" (") + chartstyle::percent(*report.esFraction, 2) + QStringLiteral(")");
     }
-    d.xLabel = d.unit == LossTailUnit::Money ? tr("%1 P&L (money; losses to the left)").arg(days)
+    d.xLabel = d.unit == LossTailUnit::Money ? tr("%1 P&L (%2; losses to the left)").arg(days, chartstyle::moneyUnit(options.currency))
                                              : tr("%1 P&L (% of portfolio value; losses to the left)").arg(days);
     if (report.assumptions.model == RiskModel::Normal) {
         d.curveLegend = tr("Model: normal P&L density");

@@ -44,6 +44,7 @@ struct LossTailOptions {
     std::vector<std::pair<QString, const RiskReport *>> overlays{};
     const RiskReport *ghost = nullptr; // what-if: the portfolio before the trades; not owned
     QString ghostLegend{};
+    QString currency{}; // the workbook's code, named on the money axis; empty: "money"
 };
 
 struct LossTailOverlay {

@@ -18,7 +18,7 @@ QString tr(const char *text) { return QCoreApplication::translate("ModelComparis
 } // namespace
 
 ModelComparisonChartData buildModelComparisonChartData(const std::vector<ModelRow> &rows, double portfolioValue,
-                                                       const Assumptions &assumptions)
+                                                       const Assumptions &assumptions, const QString &currency)
 {
     ModelComparisonChartData d;
     d.horizonDays = assumptions.horizonDays;
@@ -52,7 +52,7 @@ ModelComparisonChartData buildModelComparisonChartData(const std::vector<ModelRo
     const QString conf = chartstyle::confidenceText(d.confidence);
     d.varLegend = tr("VaR %1").arg(conf);
     d.esLegend = tr("ES %1 (average loss beyond VaR)").arg(conf);
-    d.yLabel = tr("Loss over %1 (money)").arg(days);
+    d.yLabel = tr("Loss over %1 (%2)").arg(days, chartstyle::moneyUnit(currency));
     d.title = tr("VaR and ES under each model, same holdings and window");
     if (top <= 0.0)
         d.note = tr("No model gave a figure at these assumptions.");

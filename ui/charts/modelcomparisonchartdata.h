@@ -39,6 +39,7 @@ struct ModelComparisonChartData {
 
 ModelComparisonChartData buildModelComparisonChartData(const std::vector<tailwise::ModelRow> &rows,
                                                        double portfolioValue,
-                                                       const tailwise::Assumptions &assumptions);
+                                                       const tailwise::Assumptions &assumptions,
+                                                       const QString &currency = {}); // empty: "money"
 
 } // namespace tailwise::ui

@@ -177,6 +177,11 @@ void TradeoffChart::setData(const TradeoffChartData &data)
 {
     m_data = data;
     m_note->setText(data.note);
+    if (!data.varLabel.isEmpty()) { // names the workbook's currency when it has one
+        m_horizonPlot->yAxis->setLabel(data.varLabel);
+        m_confidencePlot->yAxis->setLabel(data.varLabel);
+        m_scale->axis()->setLabel(data.varLabel);
+    }
     m_note->setVisible(!data.note.isEmpty());
     fillHorizonPlot();
     fillConfidencePlot();

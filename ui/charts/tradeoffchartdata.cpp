@@ -50,7 +50,7 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
     d.daysPerYear = std::max(1, a.daysPerYear);
     d.horizonLabel = tr("Horizon (trading days)");
     d.confidenceLabel = tr("Confidence");
-    d.varLabel = tr("VaR (money)");
+    d.varLabel = tr("VaR (%1)").arg(chartstyle::moneyUnit(options.currency));
 
     const HorizonMoments oneDay = report.oneDay;
     if (!std::isfinite(oneDay.sd) || !std::isfinite(oneDay.mean) || oneDay.sd < 0.0) {

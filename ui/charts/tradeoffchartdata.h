@@ -31,6 +31,7 @@ struct TradeoffOptions {
     double maxConfidence = 0.999;
     int confidenceSteps = 61; // rows of the map and points of the VaR-against-confidence line
     int contourTarget = 7;    // about this many contour levels
+    QString currency{};       // the workbook's code, named on the VaR axis; empty: "money"
 };
 
 struct ContourLevel {

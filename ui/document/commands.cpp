@@ -1,5 +1,7 @@
 #include "commands.h"
 
+#include "currencycode.h"
+
 #include <QUndoCommand>
 #include <QUndoStack>
 
@@ -111,6 +113,21 @@ private:
     Workbook &m_wb;
     PriceHistory m_before;
     PriceHistory m_after;
+};
+
+class SetCurrencyCommand : public QUndoCommand {
+public:
+    SetCurrencyCommand(Workbook &wb, QString after)
+        : QUndoCommand(QObject::tr("Set currency")), m_wb(wb), m_before(wb.currency()), m_after(std::move(after))
+    {
+    }
+    void redo() override { m_wb.applyCurrency(m_after); }
+    void undo() override { m_wb.applyCurrency(m_before); }
+
+private:
+    Workbook &m_wb;
+    QString m_before;
+    QString m_after;
 };
 
 class SetTitleCommand : public QUndoCommand {
@@ -228,6 +245,14 @@ void setTitle(Workbook &wb, const QString &title)
     if (title == wb.title())
         return;
     wb.undoStack()->push(new SetTitleCommand(wb, title));
+}
+
+tailwise::Result<QString> setCurrency(Workbook &wb, const QString &text)
+{
+    tailwise::Result<QString> code = parseCurrencyCode(text, "currency");
+    if (code && code.value() != wb.currency())
+        wb.undoStack()->push(new SetCurrencyCommand(wb, code.value()));
+    return code;
 }
 
 void setScenarios(Workbook &wb, const std::vector<StressScenario> &scenarios, const QString &text)

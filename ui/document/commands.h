@@ -40,6 +40,9 @@ void setAssumptions(Workbook &workbook, const tailwise::Assumptions &assumptions
 // (check with tailwise::checkHoldings first and refuse otherwise, so nothing changes).
 void replacePrices(Workbook &workbook, const tailwise::PriceHistory &prices, const QString &text);
 void setTitle(Workbook &workbook, const QString &title);
+// Sets the currency code (trimmed; empty: not stated). A text that is not a code (currencycode.h)
+// changes nothing and comes back as the error to show; does nothing when it is unchanged.
+tailwise::Result<QString> setCurrency(Workbook &workbook, const QString &text);
 // Sets the backtest settings (stored in the workbook from then on); consecutive calls with the
 // same non-None key merge. Does nothing when they are what the workbook already has.
 void setBacktestSettings(Workbook &workbook, const BacktestSettings &settings, const QString &text,

@@ -56,6 +56,7 @@ void Workbook::replaceContents(WorkbookContents contents, const QString &path, b
     emit pricesChanged();
     emit assumptionsChanged();
     emit titleChanged();
+    emit currencyChanged();
     emit backtestSettingsChanged();
     emit contentsReset();
     emit modifiedChanged(isModified());
@@ -125,6 +126,12 @@ void Workbook::applyTitle(const QString &title)
     m_contents.title = title;
     emit titleChanged();
     inputsTouched();
+}
+
+void Workbook::applyCurrency(const QString &currency)
+{
+    m_contents.currency = currency;
+    emit currencyChanged();
 }
 
 void Workbook::applyBacktestSettings(const std::optional<BacktestSettings> &settings)

@@ -38,6 +38,7 @@ public:
     const tailwise::Assumptions &assumptions() const { return m_contents.assumptions; }
     const std::vector<tailwise::StressScenario> &scenarios() const { return m_contents.scenarios; }
     QString title() const { return m_contents.title; }
+    QString currency() const { return m_contents.currency; } // e.g. "EUR"; empty: not stated
     // The stored backtest settings, or the defaults when the workbook has none.
     BacktestSettings backtestSettings() const { return m_contents.backtest.value_or(BacktestSettings{}); }
     bool hasPrices() const { return m_contents.prices.dayCount() > 0; }
@@ -73,6 +74,8 @@ public:
     void applyAssumptions(const tailwise::Assumptions &assumptions);
     void applyPrices(const tailwise::PriceHistory &prices);
     void applyTitle(const QString &title);
+    // The currency only labels figures, so it changes no input generation (nothing recomputes).
+    void applyCurrency(const QString &currency);
     // Scenarios do not feed the risk figures, so they change no input generation.
     void applyScenarios(const std::vector<tailwise::StressScenario> &scenarios);
     void applyBacktestSettings(const std::optional<BacktestSettings> &settings);
@@ -93,6 +96,7 @@ signals:
     void holdingsReset();
     void assumptionsChanged();
     void titleChanged();
+    void currencyChanged(); // also after resetContents()
     void scenariosChanged();
     // The backtest's own settings changed (not an input of the headline figures, so no
     // inputsChanged: the backtest runner listens to both).

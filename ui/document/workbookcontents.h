@@ -29,6 +29,9 @@ struct BacktestSettings {
 
 struct WorkbookContents {
     QString title;                 // shown in the window title and on reports
+    // The currency every money figure is in, as a code such as "EUR" (currencycode.h); empty: not
+    // stated, and money axes say "money". Labels only: no figure depends on it.
+    QString currency;
     tailwise::PriceHistory prices; // embedded: a workbook carries its own data
     tailwise::Holdings holdings;
     tailwise::Assumptions assumptions;

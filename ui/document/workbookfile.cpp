@@ -1,5 +1,7 @@
 #include "workbookfile.h"
 
+#include "currencycode.h"
+
 #include "tailwise/backtest.h"
 #include "tailwise/date.h"
 
@@ -645,6 +647,9 @@ QJsonObject contentsJson(const WorkbookContents &contents, const QJsonObject &ex
     root["kind"] = QLatin1String(workbookKind);
     root["format"] = workbookFormatVersion;
     root["title"] = contents.title;
+    // Written only when stated, so that a workbook without one is the same file as before.
+    if (!contents.currency.isEmpty())
+        root["currency"] = contents.currency;
     root["prices"] = pricesJson(contents.prices);
     root["holdings"] = holdingsJson(contents.holdings);
     root["assumptions"] = assumptionsJson(contents.assumptions);
@@ -678,6 +683,17 @@ Result<WorkbookContents> contentsFromJson(const QJsonObject &root, const std::st
     ObjectReader r(root, "", c);
     if (r.has("title"))
         r.string("title", contents.title);
+    if (c.ok() && r.has("currency")) {
+        // Optional (absent: not stated). "" is taken as not stated too; anything else must be a code.
+        QString code;
+        r.string("currency", code);
+        if (c.ok() && !code.isEmpty() && !isCurrencyCode(code))
+            c.fail(ErrorKind::Value, r.pathOf("currency"),
+                   "expected a currency code of three capital letters (e.g. EUR, GBP, USD), found \""
+                       + code.toStdString() + "\"");
+        if (c.ok())
+            contents.currency = code;
+    }
     const QJsonObject prices = r.object("prices");
     if (c.ok())
         readPrices(prices, c, contents.prices);

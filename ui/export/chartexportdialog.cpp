@@ -13,6 +13,8 @@
 #include <QPixmap>
 #include <QPlainTextEdit>
 #include <QPushButton>
+#include <QRegularExpression>
+#include <QRegularExpressionValidator>
 #include <QSignalBlocker>
 #include <QTimer>
 #include <QVBoxLayout>
@@ -71,8 +73,10 @@ ChartExportDialog::ChartExportDialog(const WorkbookResults &results, ChartKind k
     m_dpi->setToolTip(tr("Dots per inch of a PNG: 150 for the screen, 300 for print, 600 for fine print."));
 
     m_currency = new QLineEdit(last.print.currency, this);
-    m_currency->setPlaceholderText(tr("e.g. EUR (else the axes say “money”)"));
-    m_currency->setMaxLength(12);
+    m_currency->setPlaceholderText(tr("e.g. EUR (empty: the workbook’s, else “money”)"));
+    m_currency->setToolTip(tr("The currency code named on money axes; the workbook’s own is filled in."));
+    // Only the letters of a code (upper-cased when collected), so no axis gets a stray word.
+    m_currency->setValidator(new QRegularExpressionValidator(QRegularExpression(QStringLiteral("[A-Za-z]{0,3}")), m_currency));
 
     m_percent = new QCheckBox(tr("Loss tail: P&&L axis in % of portfolio value"), this);
     m_percent->setChecked(last.print.lossTailUnit == LossTailUnit::PercentOfValue);
@@ -151,7 +155,7 @@ ChartExportSettings ChartExportDialog::settings() const
     s.dpi = m_dpi->currentData().toInt();
     s.print.sizeMm = QSizeF(m_width->value(), m_height->value());
     s.print.caption = m_caption->toPlainText();
-    s.print.currency = m_currency->text().trimmed();
+    s.print.currency = m_currency->text().trimmed().toUpper();
     s.print.lossTailUnit = m_percent->isChecked() ? LossTailUnit::PercentOfValue : LossTailUnit::Money;
     return s;
 }

@@ -37,7 +37,8 @@ std::optional<WorkbookResults> ChartExporter::currentResults() const
     std::optional<Result<std::vector<ModelRow>>> models;
     if (m_charts.modelComparison()->isCurrent() && !m_charts.modelComparison()->model()->rows().empty())
         models = m_charts.modelComparison()->model()->rows();
-    WorkbookResults results = assembleWorkbookResults(m_workbook.title(), *report, run.settings, backtest, models);
+    WorkbookResults results = assembleWorkbookResults(m_workbook.title(), *report, run.settings, backtest, models,
+                                                      m_workbook.currency());
     if (!models)
         results.modelsProblem = tr("open the “Models side by side” tab and let it finish, then export again.");
     if (!results.backtestChart && !backtest)
@@ -63,6 +64,9 @@ void ChartExporter::exportChart()
     }
     // The loss tail goes out in the unit it is shown in.
     m_last.print.lossTailUnit = m_charts.lossTailInPercent() ? LossTailUnit::PercentOfValue : LossTailUnit::Money;
+    // The workbook's currency when it states one; otherwise what was typed last time.
+    if (!m_workbook.currency().isEmpty())
+        m_last.print.currency = m_workbook.currency();
     ChartExportDialog dialog(*results, m_charts.currentChartKind().value_or(ChartKind::LossTail), m_last, m_window);
     connect(&dialog, &ChartExportDialog::copyRequested, this,
             [this, &results](const ChartExportSettings &s) { copy(s, *results); });

@@ -187,6 +187,7 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
         } else {
             LossTailOptions o;
             o.unit = options.lossTailUnit;
+            o.currency = results.currency;
             chart->setData(buildLossTailChartData(results.report, o));
         }
         chart->clearPointer();
@@ -245,6 +246,7 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
         // the smallest are pooled into "other holdings", as on screen beyond 20.
         const double line = QFontMetricsF(fontsFor(options.sizeMm, 0.9).scaled(chartstyle::tickFont())).height();
         ContributionsOptions bars;
+        bars.currency = results.currency;
         bars.maxBars = std::clamp(static_cast<int>((area.height() - 6.0 * line) / (1.7 * line)), 3, 20);
         chart->setData(static_cast<int>(results.report.holdings.size()) > bars.maxBars
                            ? buildContributionsChartData(results.report, bars)
@@ -453,9 +455,14 @@ QString chartUnavailableReason(ChartKind kind, const WorkbookResults &results)
     return {};
 }
 
-void paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const WorkbookResults &results,
+void paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const WorkbookResults &given,
                 const ChartPrintOptions &options)
 {
+    // A currency given for this picture names the money axes in place of the workbook's own.
+    std::optional<WorkbookResults> relabelled;
+    if (!options.currency.isEmpty() && options.currency != given.currency)
+        relabelled = relabelWorkbookResults(given, options.currency);
+    const WorkbookResults &results = relabelled ? *relabelled : given;
     const QSizeF canvas(canvasUnits(options.sizeMm.width()), canvasUnits(options.sizeMm.height()));
     if (target.isEmpty() || canvas.isEmpty())
         return;

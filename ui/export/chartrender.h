@@ -59,7 +59,7 @@ inline constexpr double maxExportMm = 600.0;
 struct ChartPrintOptions {
     QSizeF sizeMm{170.0, 110.0}; // the whole picture, caption included
     QString caption;             // drawn under the chart, word-wrapped; empty: no caption
-    QString currency;            // e.g. "EUR": said on money axes in place of "money"; empty keeps "money"
+    QString currency;            // e.g. "EUR": named on money axes in place of the workbook's (results.currency); empty keeps that
     LossTailUnit lossTailUnit = LossTailUnit::Money;
 };
 

@@ -98,11 +98,14 @@ void addTitle(Document &doc, const ReportInputs &in)
     const QString title = in.contents->title.isEmpty() ? in.workbookName : in.contents->title;
     doc.add(TextStyle::Title, title);
     doc.add(TextStyle::Subheading, tr("Risk report: Value-at-Risk and Expected Shortfall"));
-    doc.add(TextStyle::Note, tr("Made on %1 from the workbook %2 with Tailwise %3. Money is in the portfolio's "
-                                "currency. The figures are estimates from past prices under a model, not advice: "
-                                "read the cautions at the end before relying on them.")
+    const QString currency = in.contents->currency.isEmpty()
+                                 ? tr("Money is in the portfolio's currency (the workbook does not state which).")
+                                 : tr("Money figures are in %1.").arg(in.contents->currency);
+    doc.add(TextStyle::Note, tr("Made on %1 from the workbook %2 with Tailwise %3. %4 The figures are estimates "
+                                "from past prices under a model, not advice: read the cautions at the end before "
+                                "relying on them.")
                                  .arg(QLocale().toString(in.date, QStringLiteral("d MMMM yyyy")), in.workbookName,
-                                      QLatin1String(versionText())));
+                                      QLatin1String(versionText()), currency));
 }
 
 void addHeadline(Document &doc, const RiskReport &r)

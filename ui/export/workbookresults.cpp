@@ -13,6 +13,27 @@ QString tr(const char *text) { return QCoreApplication::translate("WorkbookResul
 
 QString sentence(const std::string &message) { return QString::fromStdString(message); }
 
+// Every chart's data from the parts `r` has, naming r.currency on the money axes.
+void buildChartData(WorkbookResults &r)
+{
+    LossTailOptions lossTail;
+    lossTail.currency = r.currency;
+    r.lossTail = buildLossTailChartData(r.report, lossTail);
+    TradeoffOptions tradeoff;
+    tradeoff.currency = r.currency;
+    r.tradeoff = buildTradeoffChartData(r.report, tradeoff);
+    ContributionsOptions contributions;
+    contributions.currency = r.currency;
+    r.contributions = buildContributionsChartData(r.report, contributions);
+    r.backtestChart.reset();
+    if (r.backtest)
+        r.backtestChart = buildBacktestChartData(*r.backtest, ModelComparisonModel::modelName(r.backtest->assumptions.model),
+                                                 r.currency);
+    r.modelsChart.reset();
+    if (r.models)
+        r.modelsChart = buildModelComparisonChartData(*r.models, r.report.portfolioValue, r.report.assumptions, r.currency);
+}
+
 } // namespace
 
 QString riskModelTitle(RiskModel model)
@@ -22,15 +43,14 @@ QString riskModelTitle(RiskModel model)
 
 WorkbookResults assembleWorkbookResults(const QString &title, const RiskReport &report, const BacktestSettings &settings,
                                         const std::optional<Result<BacktestResult>> &backtest,
-                                        const std::optional<Result<std::vector<ModelRow>>> &models)
+                                        const std::optional<Result<std::vector<ModelRow>>> &models,
+                                        const QString &currency)
 {
     WorkbookResults r;
     r.title = title;
+    r.currency = currency;
     r.report = report;
     r.backtestSettings = settings;
-    r.lossTail = buildLossTailChartData(report);
-    r.tradeoff = buildTradeoffChartData(report);
-    r.contributions = buildContributionsChartData(report);
 
     if (!backtest) {
         r.backtestProblem = tr("The backtest has not been computed yet.");
@@ -38,7 +58,6 @@ WorkbookResults assembleWorkbookResults(const QString &title, const RiskReport &
         r.backtestProblem = sentence(backtest->error().message);
     } else {
         r.backtest = backtest->value();
-        r.backtestChart = buildBacktestChartData(*r.backtest, riskModelTitle(r.backtest->assumptions.model));
     }
 
     if (!models) {
@@ -47,8 +66,16 @@ WorkbookResults assembleWorkbookResults(const QString &title, const RiskReport &
         r.modelsProblem = sentence(models->error().message);
     } else {
         r.models = models->value();
-        r.modelsChart = buildModelComparisonChartData(*r.models, report.portfolioValue, report.assumptions);
     }
+    buildChartData(r);
+    return r;
+}
+
+WorkbookResults relabelWorkbookResults(const WorkbookResults &results, const QString &currency)
+{
+    WorkbookResults r = results;
+    r.currency = currency;
+    buildChartData(r);
     return r;
 }
 
@@ -65,7 +92,7 @@ Result<WorkbookResults> computeWorkbookResults(const WorkbookContents &contents)
         backtest = runBacktest(backtestRequestFor(contents, settings, settings.models.front()));
     std::optional<Result<std::vector<ModelRow>>> models =
         compareModels(contents.prices, contents.holdings, contents.assumptions);
-    return assembleWorkbookResults(contents.title, report.value(), settings, backtest, models);
+    return assembleWorkbookResults(contents.title, report.value(), settings, backtest, models, contents.currency);
 }
 
 } // namespace tailwise::ui

@@ -35,6 +35,7 @@ namespace tailwise::ui {
 
 struct WorkbookResults {
     QString title;                                   // the workbook's title (may be empty)
+    QString currency;                                // the code the chart data's money axes name (may be empty)
     tailwise::RiskReport report;
 
     BacktestSettings backtestSettings;               // as used (the workbook's, or the defaults)
@@ -61,7 +62,12 @@ tailwise::Result<WorkbookResults> computeWorkbookResults(const WorkbookContents 
 WorkbookResults assembleWorkbookResults(const QString &title, const tailwise::RiskReport &report,
                                         const BacktestSettings &backtestSettings,
                                         const std::optional<tailwise::Result<tailwise::BacktestResult>> &backtest,
-                                        const std::optional<tailwise::Result<std::vector<tailwise::ModelRow>>> &models);
+                                        const std::optional<tailwise::Result<std::vector<tailwise::ModelRow>>> &models,
+                                        const QString &currency = {});
+
+// The same results with every chart's data rebuilt to name `currency` on its money axes (an
+// export told another currency than the workbook's). Cheap: the builders only arrange numbers.
+WorkbookResults relabelWorkbookResults(const WorkbookResults &results, const QString &currency);
 
 // The model's name as the window's backtest view and comparison table give it ("Normal").
 QString riskModelTitle(tailwise::RiskModel model);

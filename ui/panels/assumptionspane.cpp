@@ -4,6 +4,7 @@
 #include "document/workbook.h"
 #include "localnumbers.h"
 #include "modelsettings.h"
+#include "workbookdetails.h"
 
 #include "tailwise/assumptions.h"
 
@@ -65,6 +66,10 @@ void AssumptionsPane::buildWidgets()
     auto *form = new QFormLayout;
     form->setFieldGrowthPolicy(QFormLayout::AllNonFixedFieldsGrow);
     form->setLabelAlignment(Qt::AlignRight | Qt::AlignVCenter);
+
+    // --- The workbook's title and currency ---
+    form->addRow(sectionTitle(tr("Workbook"), this));
+    form->addRow(new WorkbookDetails(m_workbook, this));
 
     // --- Confidence ---
     form->addRow(sectionTitle(tr("How sure"), this));

@@ -286,6 +286,7 @@ BacktestView::BacktestView(Workbook &workbook, QWidget *parent) : QWidget(parent
     connect(&workbook, &Workbook::backtestSettingsChanged, this, &BacktestView::refreshSettings);
     connect(&workbook, &Workbook::contentsReset, this, &BacktestView::refreshSettings);
     connect(m_runner, &BacktestRunner::resultsChanged, this, &BacktestView::refreshResults);
+    connect(&workbook, &Workbook::currencyChanged, this, &BacktestView::refreshResults);
     connect(m_runner, &BacktestRunner::stateChanged, this, &BacktestView::refreshResults);
     connect(m_runner, &BacktestRunner::progress, this, [this](double f) { m_progress->setValue(static_cast<int>(std::lround(f * 100.0))); });
 
@@ -376,7 +377,7 @@ void BacktestView::showResult(const BacktestResult &r)
                        + tr("The zone counts the exceptions alone; the tests weigh them, and their timing, against chance.")
                        + QStringLiteral("</small>"));
 
-    m_chart->setData(buildBacktestChartData(r, model));
+    m_chart->setData(buildBacktestChartData(r, model, m_workbook.currency()));
 
     const auto &c = r.christoffersen;
     const QString row = QStringLiteral("<tr><td>%1</td><td align=right>&nbsp;%2&nbsp;</td><td>%3</td></tr>");

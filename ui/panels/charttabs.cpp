@@ -92,6 +92,7 @@ ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_w
 
     connect(&workbook, &Workbook::resultsChanged, this, &ChartTabs::refresh);
     connect(&workbook, &Workbook::contentsReset, this, &ChartTabs::refresh);
+    connect(&workbook, &Workbook::currencyChanged, this, &ChartTabs::refresh); // the money axes name it
     connect(m_tabs, &QTabWidget::currentChanged, this, &ChartTabs::refreshTab);
     connect(m_tabs, &QTabWidget::currentChanged, this, &ChartTabs::updateChartActions);
     connect(m_percent, &QCheckBox::toggled, this, &ChartTabs::refreshLossTail);
@@ -164,6 +165,7 @@ void ChartTabs::refreshLossTail()
     if (!report)
         return;
     LossTailOptions options;
+    options.currency = m_workbook.currency();
     options.unit = m_percent->isChecked() ? LossTailUnit::PercentOfValue : LossTailUnit::Money;
     options.showHistory = m_history->isChecked();
     m_overlayReports.clear();
@@ -187,6 +189,24 @@ void ChartTabs::refreshLossTail()
     }
     m_lossTail->setData(buildLossTailChartData(*report, options));
 }
+
+namespace {
+
+TradeoffOptions tradeoffOptions(const QString &currency)
+{
+    TradeoffOptions o;
+    o.currency = currency;
+    return o;
+}
+
+ContributionsOptions contributionsOptions(const QString &currency)
+{
+    ContributionsOptions o;
+    o.currency = currency;
+    return o;
+}
+
+} // namespace
 
 void ChartTabs::refresh()
 {
@@ -217,9 +237,9 @@ void ChartTabs::refreshTab(int tab)
     if (tab == 0)
         refreshLossTail();
     else if (tab == 1)
-        m_tradeoff->setData(buildTradeoffChartData(*report));
+        m_tradeoff->setData(buildTradeoffChartData(*report, tradeoffOptions(m_workbook.currency())));
     else
-        m_contributions->setData(buildContributionsChartData(*report));
+        m_contributions->setData(buildContributionsChartData(*report, contributionsOptions(m_workbook.currency())));
 }
 
 } // namespace tailwise::ui

@@ -58,7 +58,8 @@ HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(pare
     m_esMoney = makeLabel(QStringLiteral("esMoney"), this, 1.8, true);
     m_esShare = makeLabel(QStringLiteral("esShare"), this, 1.1);
     m_value = makeLabel(QStringLiteral("portfolioValue"), this, 1.8);
-    auto *valueShare = new QLabel(this);
+    // Beside the portfolio value: the workbook's currency, which every money figure here is in.
+    m_currency = makeLabel(QStringLiteral("headlineCurrency"), this, 1.1);
 
     m_figures = new QWidget(this);
     auto *figures = new QHBoxLayout(m_figures);
@@ -71,7 +72,7 @@ HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(pare
                                    tr("The average loss in the cases where the loss is larger than VaR."), m_esMoney,
                                    m_esShare, m_figures));
     figures->addWidget(figureBlock(tr("Portfolio value"), tr("Net market value of the holdings (shorts count negative)."),
-                                   m_value, valueShare, m_figures));
+                                   m_value, m_currency, m_figures));
     figures->addStretch();
 
     m_title = makeLabel(QStringLiteral("workbookTitle"), this, 1.2, true);
@@ -91,6 +92,7 @@ HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(pare
     connect(&workbook, &Workbook::resultsChanged, this, &HeadlinePanel::refresh);
     connect(&workbook, &Workbook::contentsReset, this, &HeadlinePanel::refresh);
     connect(&workbook, &Workbook::titleChanged, this, &HeadlinePanel::refresh);
+    connect(&workbook, &Workbook::currencyChanged, this, &HeadlinePanel::refresh);
     // While a background model runs, the figures on screen belong to the previous inputs: they
     // are greyed and say so until the new ones arrive (or the run is stopped).
     connect(&workbook, &Workbook::computingChanged, this, [this](bool computing) {
@@ -137,6 +139,11 @@ void HeadlinePanel::refresh()
 {
     m_title->setText(m_workbook.title());
     m_title->setVisible(!m_workbook.title().isEmpty());
+    m_currency->setText(m_workbook.currency());
+    m_currency->setToolTip(m_workbook.currency().isEmpty()
+                               ? QString()
+                               : tr("Every money figure is in %1 (the workbook's currency; nothing is converted).")
+                                     .arg(m_workbook.currency()));
     const auto &report = m_workbook.report();
     const auto &error = m_workbook.resultError();
     if (report) {

@@ -34,6 +34,7 @@ private:
     QLabel *m_esMoney = nullptr;
     QLabel *m_esShare = nullptr;
     QLabel *m_value = nullptr;
+    QLabel *m_currency = nullptr; // the workbook's currency code, beside the portfolio value
     QLabel *m_sentence = nullptr;
     QLabel *m_notes = nullptr;
     QWidget *m_figures = nullptr;

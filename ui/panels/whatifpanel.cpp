@@ -162,6 +162,7 @@ WhatIfPanel::WhatIfPanel(Workbook &workbook, QWidget *parent)
     });
     // The holdings or assumptions changed: the same proposal, on the new portfolio.
     connect(&workbook, &Workbook::resultsChanged, this, &WhatIfPanel::recompute);
+    connect(&workbook, &Workbook::currencyChanged, this, &WhatIfPanel::recompute);
     connect(&workbook, &Workbook::pricesChanged, this, &WhatIfPanel::refreshAssets);
     connect(&workbook, &Workbook::contentsReset, this, [this] { setTrades({}); });
     recompute();
@@ -295,7 +296,9 @@ void WhatIfPanel::show(Result<WhatIf> result)
                                               : tr("No figures: %1").arg(m_problem));
         m_apply->setEnabled(false);
         m_discard->setEnabled(m_trades->rowCount() > 0);
-        m_chart->setData(m_workbook.report() ? buildLossTailChartData(*m_workbook.report()) : LossTailChartData{});
+        LossTailOptions now;
+        now.currency = m_workbook.currency();
+        m_chart->setData(m_workbook.report() ? buildLossTailChartData(*m_workbook.report(), now) : LossTailChartData{});
         return;
     }
     m_result = std::move(result).value();
@@ -335,6 +338,7 @@ void WhatIfPanel::show(Result<WhatIf> result)
     m_discard->setEnabled(true);
 
     LossTailOptions options;
+    options.currency = m_workbook.currency();
     options.ghost = &w.before;
     options.ghostLegend = tr("Now, before the trades");
     LossTailChartData data = buildLossTailChartData(w.after, options);

@@ -250,6 +250,12 @@ std::vector<Case> catalogue()
     c.push_back(workbookCase("workbook: binary garbage", garbage(4096, 17), {"book.tailwise"}));
     c.push_back(workbookCase("workbook: not a workbook", workbookWith([](WorkbookParts &w) { w.head = "\"kind\": \"shopping-list\", \"format\": 1"; }),
                              {"book.tailwise", "kind"}));
+    c.push_back(workbookCase("workbook: currency in lower case",
+                             workbookWith([](WorkbookParts &w) { w.head += ", \"currency\": \"eur\""; }),
+                             {"book.tailwise", "currency", "three capital letters", "\"eur\""}));
+    c.push_back(workbookCase("workbook: currency a number",
+                             workbookWith([](WorkbookParts &w) { w.head += ", \"currency\": 978"; }),
+                             {"book.tailwise", "currency"}));
     c.push_back(workbookCase("workbook: newer format", workbookWith([](WorkbookParts &w) { w.head = "\"kind\": \"tailwise-workbook\", \"format\": 99"; }),
                              {"book.tailwise", "format"}));
     c.push_back(workbookCase("workbook: price as text", workbookWith([](WorkbookParts &w) { w.rows = "[[100, 50], [\"ten\", 49.5], [99.5, 50.2], [100.8, 50.9]]"; }),

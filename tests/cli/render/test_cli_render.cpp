@@ -70,6 +70,7 @@ private slots:
     void svgAndPdfAtAPreset();
     void customSizeAndDpi();
     void captionGivenGeneratedOrNone();
+    void moneyAxesNameTheWorkbooksCurrency();
     void badOptionsExitTwo_data();
     void badOptionsExitTwo();
     void badWorkbookExitsOne();
@@ -166,6 +167,27 @@ void TestCliRender::captionGivenGeneratedOrNone()
     QVERIFY(!readAll(none).contains("not the worst case"));
 }
 
+// The sample states EUR (samples/README.md): every chart's money axis names it with no option,
+// and --currency names another for this picture only.
+void TestCliRender::moneyAxesNameTheWorkbooksCurrency()
+{
+    for (const char *chart : {"loss-tail", "tradeoff", "contributions", "backtest", "models"}) {
+        const QString path = m_dir.filePath(QStringLiteral("eur-%1.svg").arg(QLatin1String(chart)));
+        const QStringList args{"render", sample, "--chart", QLatin1String(chart), "--out", path, "--no-caption"};
+        const Run r = runCli(args);
+        QVERIFY2(r.exitCode == 0, qPrintable(describe(args, r)));
+        const QByteArray svg = readAll(path);
+        QVERIFY2(svg.contains("(EUR") || svg.contains("EUR)") || svg.contains("EUR;"), chart);
+        QVERIFY2(!svg.contains("(money"), chart);
+    }
+    const QString other = m_dir.filePath(QStringLiteral("gbp.svg"));
+    const QStringList args{"render", sample, "--chart", "loss-tail", "--out", other, "--currency", "GBP"};
+    const Run r = runCli(args);
+    QVERIFY2(r.exitCode == 0, qPrintable(describe(args, r)));
+    QVERIFY(readAll(other).contains("GBP; losses to the left"));
+    QVERIFY(!readAll(other).contains("EUR; losses to the left"));
+}
+
 void TestCliRender::badOptionsExitTwo_data()
 {
     QTest::addColumn<QStringList>("args");
@@ -184,6 +206,8 @@ void TestCliRender::badOptionsExitTwo_data()
     QTest::newRow("no value") << QStringList{"render", sample, "--chart", "models", "--out"} << "--out";
     QTest::newRow("unknown option") << QStringList{"render", sample, "--chart", "models", "--out", out, "--colour", "red"} << "--colour";
     QTest::newRow("both captions") << QStringList{"render", sample, "--chart", "models", "--out", out, "--caption", "x", "--no-caption"} << "--no-caption";
+    QTest::newRow("currency in lower case") << QStringList{"render", sample, "--chart", "models", "--out", out, "--currency", "eur"} << "--currency";
+    QTest::newRow("currency a word") << QStringList{"render", sample, "--chart", "models", "--out", out, "--currency", "euros"} << "--currency";
     QTest::newRow("no workbook") << QStringList{"render", "--chart", "models", "--out", out} << "WORKBOOK";
 }
 

@@ -92,8 +92,11 @@ void TestCliReport::writesTheSampleReportWithoutADisplay()
         const QString figure = locale.toString(json.value(QLatin1String(key)).toDouble(), 'f', 2);
         QVERIFY2(text.contains(figure), qPrintable(QStringLiteral("%1 %2 not in: %3").arg(QLatin1String(key), figure, text.left(1500))));
     }
+    // The sample states EUR: the header line says so, and so do the charts' money axes.
+    QCOMPARE(json.value(QLatin1String("currency")).toString(), QStringLiteral("EUR"));
     for (const char *s : {"Headline figures", "Assumptions", "Cautions", "VaR is not the worst case", "Backtest",
-                          "Page 1 of", "larchmere.tailwise"})
+                          "Page 1 of", "larchmere.tailwise", "Money figures are in EUR.", "(EUR; losses to the left)",
+                          "VaR (EUR)"})
         QVERIFY2(text.contains(QLatin1String(s)), s);
 }
 

@@ -39,6 +39,17 @@ const QStringList sampleAssumptions = {"--horizon", "10", "--confidence", "0.99"
 
 QStringList csvInputs() { return {"--prices", sample("prices.csv"), "--holdings", sample("holdings.csv")}; }
 
+// The output of `var --workbook` on a workbook that states EUR, less what the currency adds (the
+// JSON's "currency", the text's Currency line and the code beside each money figure): what the
+// same run from the CSV files, which state no currency, prints.
+QByteArray withoutCurrency(QByteArray out)
+{
+    out.replace("  \"currency\": \"EUR\",\n", "");
+    out.replace("Currency            EUR (every money figure; only a label, nothing is converted)\n", "");
+    out.replace(" EUR", "");
+    return out;
+}
+
 double figure(const QByteArray &json, const char *key)
 {
     return QJsonDocument::fromJson(json).object().value(QLatin1String(key)).toDouble(std::nan(""));
@@ -68,8 +79,11 @@ void TestCliWorkbook::sampleWorkbookGivesTheFiguresOfItsCsvs()
     TW_RUN_OK(fromWorkbook);
     const Run fromCsv = cli(QStringList{"var"} + csvInputs() + sampleAssumptions + QStringList{"--json"});
     TW_RUN_OK(fromCsv);
-    // Same bytes: every figure (VaR, ES, each contribution, the window's dates) is identical.
-    QCOMPARE(fromWorkbook.out, fromCsv.out);
+    // Same bytes: every figure (VaR, ES, each contribution, the window's dates) is identical; the
+    // workbook's output adds only its currency.
+    QVERIFY2(fromWorkbook.out.startsWith("{\n  \"currency\": \"EUR\",\n"), fromWorkbook.out.left(80).constData());
+    QCOMPARE(withoutCurrency(fromWorkbook.out), fromCsv.out);
+    QVERIFY(!fromCsv.out.contains("currency"));
     const double var = figure(fromWorkbook.out, "var");
     QVERIFY2(std::isfinite(var) && var > 0, qPrintable(QString::number(var)));
     QCOMPARE(figure(fromWorkbook.out, "horizon_days"), 10.0);
@@ -79,7 +93,9 @@ void TestCliWorkbook::sampleWorkbookGivesTheFiguresOfItsCsvs()
     const Run textWorkbook = cli({"var", "--workbook", sample("larchmere.tailwise")});
     TW_RUN_OK(textWorkbook);
     const Run textCsv = cli(QStringList{"var"} + csvInputs() + sampleAssumptions);
-    QCOMPARE(textWorkbook.out, textCsv.out);
+    QVERIFY2(textWorkbook.out.contains("Currency            EUR") && textWorkbook.out.contains(" EUR   "),
+             textWorkbook.out.left(600).constData());
+    QCOMPARE(withoutCurrency(textWorkbook.out), textCsv.out);
 }
 
 void TestCliWorkbook::sampleIsRebuiltByTheDocumentedCommand()
@@ -92,7 +108,7 @@ void TestCliWorkbook::sampleIsRebuiltByTheDocumentedCommand()
                                        "normal,student-t,cornish-fisher,historical"}
                          + QStringList{"--scenario", sample("scenarios/Equity drawdown -20%.csv"), "--scenario",
                                        sample("scenarios/Rates up, bonds -5%.csv")}
-                         + QStringList{"--title", "Larchmere Balanced Fund", "--out", out});
+                         + QStringList{"--title", "Larchmere Balanced Fund", "--currency", "EUR", "--out", out});
     TW_RUN_OK(pack);
     QFile rebuilt(out), committed(sample("larchmere.tailwise"));
     QVERIFY(rebuilt.open(QIODevice::ReadOnly));
@@ -122,7 +138,7 @@ void TestCliWorkbook::optionsOverrideTheStoredAssumptions()
         TW_RUN_OK(overridden);
         const Run csv = cli(QStringList{"var"} + csvInputs() + c.csvAssumptions + QStringList{"--json"});
         TW_RUN_OK(csv);
-        QVERIFY2(overridden.out == csv.out, qPrintable(c.override.join(QLatin1Char(' '))));
+        QVERIFY2(withoutCurrency(overridden.out) == csv.out, qPrintable(c.override.join(QLatin1Char(' '))));
         QVERIFY2(figure(overridden.out, "var") != figure(stored.out, "var"),
                  qPrintable(c.override.join(QLatin1Char(' ')) + QStringLiteral(" changed nothing")));
     }
@@ -283,6 +299,11 @@ void TestCliWorkbook::packRefusals()
                         "--horizon", "0", "--out", dir.filePath(QStringLiteral("x.tailwise"))});
     QCOMPARE(r.exitCode, 2);
     QVERIFY2(r.err.contains("--horizon"), r.err.constData());
+    QVERIFY(!QFile::exists(dir.filePath(QStringLiteral("x.tailwise"))));
+    // A currency that is not three capital letters: a usage error naming the option, no file.
+    r = cli(QStringList{"pack"} + csvInputs() + QStringList{"--currency", "euro", "--out", dir.filePath(QStringLiteral("x.tailwise"))});
+    QCOMPARE(r.exitCode, 2);
+    QVERIFY2(r.err.contains("--currency: expected a currency code of three capital letters"), r.err.constData());
     QVERIFY(!QFile::exists(dir.filePath(QStringLiteral("x.tailwise"))));
 }
 
