@@ -265,10 +265,7 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
             p->plotLayout()->simplify();
         }
         if (QCPAxisRect *bars = p->axisRect(0)) {
-            QCPAxis *money = bars->axis(QCPAxis::atBottom);
-            const double span = money->range().size();
-            money->setRange(money->range().lower - (money->range().lower < 0.0 ? 0.3 * span : 0.0),
-                            money->range().upper + 0.2 * span);
+            // (The money range is fitted to the labels by the chart itself, once laid out.)
             // Under the bars, where it covers no hedge.
             if (auto *inset = bars->insetLayout(); inset && inset->elements(false).contains(p->legend)) {
                 inset->take(p->legend);
