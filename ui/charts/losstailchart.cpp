@@ -175,7 +175,7 @@ void LossTailChart::setData(const LossTailChartData &data)
     p->xAxis->setTicker(QSharedPointer<QCPAxisTicker>(
         new LocaleTicker(data.unit == LossTailUnit::PercentOfValue ? QLocale().percent() : QString())));
     p->xAxis->setLabel(data.xLabel);
-    p->yAxis->setLabel(data.yLabel + QStringLiteral(" (%)"));
+    p->yAxis->setLabel(data.yLabel);
     p->xAxis->setRange(data.xMin, data.xMax);
     p->yAxis->setRange(0.0, data.densityMax > 0.0 ? data.densityMax * f * 1.35 : 1.0);
 

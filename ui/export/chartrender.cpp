@@ -135,7 +135,14 @@ void applyPrintStyle(QCustomPlot *plot, const QSizeF &pane, const PrintFonts &fo
             if (!axis || axis->label().isEmpty())
                 continue;
             QFont f = axis->labelFont();
-            while (f.pixelSize() > 7 && QFontMetricsF(f).horizontalAdvance(axis->label()) > room)
+            const QStringList lines = axis->label().split(QLatin1Char('\n'));
+            const auto longest = [&] {
+                double w = 0.0;
+                for (const QString &line : lines)
+                    w = std::max(w, QFontMetricsF(f).horizontalAdvance(line));
+                return w;
+            };
+            while (f.pixelSize() > 7 && longest() > room)
                 f.setPixelSize(f.pixelSize() - 1);
             axis->setLabelFont(f);
         }
@@ -206,10 +213,16 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
                 const double width = QFontMetricsF(fonts.scaled(t->font())).horizontalAdvance(t->text()) + 12.0;
                 cramped = cramped || width > room(t->position->key());
             }
+        // A label that does not fit left of its line goes right of the innermost line (VaR's), so
+        // that it crosses no line: ES's label would cross VaR's line right of its own.
+        const double inner = std::max(d.tailBoundary, d.esMarker);
         if (cramped)
             for (QCPItemText *t : labels) {
-                t->setPositionAlignment(Qt::AlignLeft | Qt::AlignVCenter);
-                t->position->setCoords(t->position->key(), t->text() == d.esLabel ? 0.12 : 0.45);
+                const double width = QFontMetricsF(fonts.scaled(t->font())).horizontalAdvance(t->text()) + 12.0;
+                const bool fitsLeft = width <= room(t->position->key());
+                const bool es = t->text() == d.esLabel;
+                t->setPositionAlignment((fitsLeft ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
+                t->position->setCoords(fitsLeft ? t->position->key() : inner, es ? 0.12 : 0.3);
             }
         charts.note = chart->data().note;
         charts.panes.push_back({chart->plot(), area});
