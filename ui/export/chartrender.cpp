@@ -153,6 +153,12 @@ void applyPrintStyle(QCustomPlot *plot, const QSizeF &pane, const PrintFonts &fo
     const int icon = QFontMetrics(legendFont).height();
     plot->legend->setIconSize(2 * icon, icon);
     plot->legend->setRowSpacing(0);
+    // Entries too wide for one row go on more rows (each column as wide as its widest entry)
+    // before any text is made smaller.
+    while (plot->legend->wrap() > 1 && plot->legend->minimumOuterSizeHint().width() > pane.width() - 8.0) {
+        plot->legend->setWrap(plot->legend->wrap() - 1);
+        plot->legend->setFillOrder(plot->legend->fillOrder(), true);
+    }
     while (legendFont.pixelSize() > 7 && plot->legend->minimumOuterSizeHint().width() > pane.width() - 8.0) {
         legendFont.setPixelSize(legendFont.pixelSize() - 1);
         plot->legend->setFont(legendFont);
