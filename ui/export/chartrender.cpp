@@ -238,22 +238,29 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
         auto *chart = new TradeoffChart(host);
         chart->setData(results.tradeoff);
         charts.note = results.tradeoff.note;
+        // On paper the horizon lines' legend goes under them: inside, at print sizes, it covers
+        // the lines and is cut by the frame.
+        moveLegendBelow(chart->horizonPlot(), 3);
+        chart->horizonPlot()->yAxis->ticker()->setTickCount(3);
         const double gap = canvasUnits(3.0);
         if (area.width() < canvasUnits(120.0)) {
             // A column has room for one picture: the map, which holds both the others.
             charts.panes.push_back({chart->mapPlot(), area});
         } else if (area.width() < area.height() * 1.1) {
             // Tall: the three pictures stacked, the map with the most room.
-            const double h = (area.height() - 2.0 * gap) / 4.0;
-            charts.panes.push_back({chart->horizonPlot(), QRectF(area.left(), area.top(), area.width(), h)});
-            charts.panes.push_back({chart->confidencePlot(), QRectF(area.left(), area.top() + h + gap, area.width(), h)});
-            charts.panes.push_back({chart->mapPlot(), QRectF(area.left(), area.top() + 2.0 * (h + gap), area.width(), 2.0 * h)});
+            // (The horizon lines a little more, for their legend under them.)
+            const double h = (area.height() - 2.0 * gap) / 4.3;
+            charts.panes.push_back({chart->horizonPlot(), QRectF(area.left(), area.top(), area.width(), 1.3 * h)});
+            charts.panes.push_back({chart->confidencePlot(), QRectF(area.left(), area.top() + 1.3 * h + gap, area.width(), h)});
+            charts.panes.push_back({chart->mapPlot(), QRectF(area.left(), area.top() + 2.3 * h + 2.0 * gap, area.width(), 2.0 * h)});
         } else {
             // Wide: as on screen, the two lines on the left, the map on the right.
+            // The horizon lines get the more height: their legend sits under them.
             const double left = (area.width() - gap) * 10.0 / 23.0;
-            const double h = (area.height() - gap) / 2.0;
+            const double h = (area.height() - gap) * 0.58;
+            const double h2 = area.height() - gap - h;
             charts.panes.push_back({chart->horizonPlot(), QRectF(area.left(), area.top(), left, h)});
-            charts.panes.push_back({chart->confidencePlot(), QRectF(area.left(), area.top() + h + gap, left, h)});
+            charts.panes.push_back({chart->confidencePlot(), QRectF(area.left(), area.top() + h + gap, left, h2)});
             charts.panes.push_back({chart->mapPlot(), QRectF(area.left() + left + gap, area.top(), area.width() - left - gap, area.height())});
         }
         break;
