@@ -265,9 +265,14 @@ void ContributionsChart::fillDiversification()
     varText->position->setCoords(3.0, var);
     m_stepLabels.emplace_back(varText, 3.0);
     // The benefit's figure sits inside its step, clear of the bars' own labels.
-    valueText(m_plot, m_stepRect, QLocale().negativeSign() + chartstyle::money(m_data.diversificationBenefit),
-              Qt::AlignCenter)
-        ->position->setCoords(2.0, 0.5 * (whole + var));
+    // On a white ground: on a narrow panel the figure is wider than the step, and its dashed edges
+    // would run through the digits.
+    QCPItemText *benefit = valueText(m_plot, m_stepRect, QLocale().negativeSign() + chartstyle::money(m_data.diversificationBenefit),
+                                     Qt::AlignCenter);
+    benefit->position->setCoords(2.0, 0.5 * (whole + var));
+    benefit->setBrush(QColor(255, 255, 255, 235));
+    benefit->setPen(QPen(chartstyle::teal().darker(140), 1));
+    m_stepLabels.emplace_back(benefit, 2.0);
     QCPItemText *note = valueText(m_plot, m_stepRect, m_data.benefitText, Qt::AlignHCenter | Qt::AlignTop);
     note->position->setTypeY(QCPItemPosition::ptAxisRectRatio);
     note->position->setCoords(2.0, 0.01);
