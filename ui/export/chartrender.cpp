@@ -205,31 +205,28 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
         chart->clearPointer();
         // One entry a row: the entries are sentences that two columns would cut.
         moveLegendBelow(chart->plot(), 1);
-        // The VaR and ES labels sit left of their lines; where the tail leaves too little room
-        // for them on paper, both go right of their lines instead, further apart (ES above).
+        // On paper the VaR and ES labels are placed so that neither crosses a line (below).
         QCustomPlot *p = chart->plot();
         const LossTailChartData &d = chart->data();
         const PrintFonts fonts = fontsFor(options.sizeMm);
         const auto room = [&](double x) { return (x - d.xMin) / std::max(1e-12, d.xMax - d.xMin) * area.width() * 0.8; };
         std::vector<QCPItemText *> labels;
-        bool cramped = false;
         for (int i = 0; i < p->itemCount(); ++i)
-            if (auto *t = qobject_cast<QCPItemText *>(p->item(i)); t && (t->text() == d.varLabel || t->text() == d.esLabel)) {
+            if (auto *t = qobject_cast<QCPItemText *>(p->item(i)); t && (t->text() == d.varLabel || t->text() == d.esLabel))
                 labels.push_back(t);
-                const double width = QFontMetricsF(fonts.scaled(t->font())).horizontalAdvance(t->text()) + 12.0;
-                cramped = cramped || width > room(t->position->key());
-            }
-        // A label that does not fit left of its line goes right of the innermost line (VaR's), so
-        // that it crosses no line: ES's label would cross VaR's line right of its own.
+        // A label right of a line goes right of the innermost line (VaR's): ES's label right of
+        // its own line would cross VaR's.
         const double inner = std::max(d.tailBoundary, d.esMarker);
-        if (cramped)
-            for (QCPItemText *t : labels) {
-                const double width = QFontMetricsF(fonts.scaled(t->font())).horizontalAdvance(t->text()) + 12.0;
-                const bool fitsLeft = width <= room(t->position->key());
-                const bool es = t->text() == d.esLabel;
-                t->setPositionAlignment((fitsLeft ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
-                t->position->setCoords(fitsLeft ? t->position->key() : inner, es ? 0.12 : 0.3);
-            }
+        // Left of its own line VaR's label would cross ES's line wherever the two lines are closer
+        // than the label is wide, so on paper it always goes right of its line; ES's stays left of
+        // its line where it fits.
+        for (QCPItemText *t : labels) {
+            const double width = QFontMetricsF(fonts.scaled(t->font())).horizontalAdvance(t->text()) + 12.0;
+            const bool es = t->text() == d.esLabel;
+            const bool fitsLeft = es && width <= room(t->position->key());
+            t->setPositionAlignment((fitsLeft ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
+            t->position->setCoords(fitsLeft ? t->position->key() : inner, es ? 0.12 : 0.3);
+        }
         charts.note = chart->data().note;
         charts.panes.push_back({chart->plot(), area});
         break;
@@ -340,17 +337,18 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
                                                                  .replace(QStringLiteral("–"), QStringLiteral("–\n")));
                 ticker->setTicks(ticks);
             }
+            // The bars' figures are wider than a group here and would run into each other: the
+            // caption gives the headline, lowest and highest figures instead. The axis label on
+            // two lines keeps a legible size.
             QCustomPlot *p = chart->plot();
             for (int i = p->itemCount() - 1; i >= 0; --i)
                 if (auto *t = qobject_cast<QCPItemText *>(p->item(i))) {
                     const double key = t->position->key();
-                    if (key > std::round(key) + 0.001) { // the ES figures sit right of the key
+                    if (std::abs(key - std::round(key)) > 0.001) // the figures sit beside their key
                         p->removeItem(t);
-                    } else if (key < std::round(key) - 0.001) { // a VaR figure: over its bar
-                        t->position->setCoords(std::round(key) - 0.175, t->position->value());
-                        t->setPositionAlignment(Qt::AlignHCenter | Qt::AlignBottom);
-                    }
                 }
+            p->yAxis->setLabel(p->yAxis->label().replace(QStringLiteral(" ("), QStringLiteral("\n(")));
+            p->yAxis->ticker()->setTickCount(3); // a short axis: fewer, legible numbers
         }
         charts.note = results.modelsChart->note;
         charts.panes.push_back({chart->plot(), area});
