@@ -9,6 +9,7 @@
 #include "export/workbookresults.h"
 
 #include <QApplication>
+#include <QDir>
 #include <QFile>
 
 #include <cstdio>
@@ -56,6 +57,17 @@ int runRenderCommand(const std::vector<std::string> &args)
     const auto written = ui::writeChart(QFile::decodeName(options.outPath.c_str()), s, results.value());
     if (!written)
         return fail(exitBadInput, written.error().message);
+    // Like `report`, say what was written: the size on paper, and the pixels of a PNG.
+    const QString path = QDir::toNativeSeparators(QFile::decodeName(options.outPath.c_str()));
+    QString what = QStringLiteral("%1, %2 × %3 mm")
+                       .arg(ui::exportFormatName(s.format).toUpper())
+                       .arg(s.print.sizeMm.width(), 0, 'g', 4)
+                       .arg(s.print.sizeMm.height(), 0, 'g', 4);
+    if (s.format == ui::ExportFormat::Png) {
+        const QSize px = ui::exportPixelSize(s.print.sizeMm, s.dpi);
+        what += QStringLiteral(", %1 × %2 px at %3 dpi").arg(px.width()).arg(px.height()).arg(s.dpi);
+    }
+    std::fprintf(stdout, "Wrote %s (%s).\n", path.toLocal8Bit().constData(), what.toUtf8().constData());
     return exitOk;
 }
 

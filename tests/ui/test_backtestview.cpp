@@ -88,7 +88,7 @@ void TestBacktestView::chartDataExceptionsEqualCore()
     QCOMPARE(d.keys.size(), qsizetype(r.days.size()));
     QCOMPARE(d.skippedDays, 0);
     const std::vector<Date> dates = exceptionDates(r);
-    QVERIFY2(!dates.empty(), "the sample should have exceptions at 99 % over its tested days");
+    QVERIFY2(!dates.empty(), "the sample should have exceptions at 99% over its tested days");
     QCOMPARE(d.exceptionKeys.size(), qsizetype(dates.size()));
     QCOMPARE(d.exceptionKeys.size(), qsizetype(r.exceptions));
     for (std::size_t i = 0; i < dates.size(); ++i)
@@ -159,7 +159,7 @@ void TestBacktestView::viewShowsZoneAndVerdictForTheSample()
              qPrintable(zone));
     const QString verdict = view.verdictText();
     QVERIFY2(verdict.contains(v.passed ? QStringLiteral("<b>Passed</b>") : QStringLiteral("<b>Not passed</b>")), qPrintable(verdict));
-    QVERIFY2(verdict.contains(QStringLiteral("5 %")), qPrintable(verdict)); // the default test size
+    QVERIFY2(verdict.contains(QStringLiteral("5%")), qPrintable(verdict)); // the default test size
     QVERIFY(view.messageText().isEmpty());
 
     QCOMPARE(view.exceptionsTable()->rowCount(), r.exceptions);
@@ -204,7 +204,7 @@ void TestBacktestView::testSizeChangesTheVerdictWithoutRerunning()
     QCOMPARE(wb.backtestSettings().testSize, 0.10);
     QCOMPARE(view.runner().generation(), generation); // the same results, read at 10 %
     QCOMPARE(view.runner().state(), BacktestRunner::State::Finished);
-    QVERIFY2(view.verdictText().contains(QStringLiteral("10 %")), qPrintable(view.verdictText()));
+    QVERIFY2(view.verdictText().contains(QStringLiteral("10%")), qPrintable(view.verdictText()));
 }
 
 void TestBacktestView::changingTheWindowRerunsAndDropsTheStaleResult()

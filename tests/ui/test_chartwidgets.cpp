@@ -8,9 +8,13 @@
 
 #include <qcustomplot.h>
 
+#include <QFontMetricsF>
 #include <QRegularExpression>
 #include <QSignalSpy>
 #include <QtTest>
+
+#include <algorithm>
+#include <vector>
 
 using namespace tailwise;
 using namespace tailwise::ui;
@@ -37,6 +41,41 @@ void grabAndMaybeSave(QWidget &w, const char *name)
         QVERIFY(pixmap.save(QString::fromLocal8Bit(dir) + QLatin1Char('/') + QLatin1String(name) + QStringLiteral(".png")));
 }
 
+// The pixel box of each visible text item of a laid-out plot (as QCPItemText draws it: the text's
+// bounding box plus padding, placed by its position alignment) and the plot area it belongs to.
+struct TextBox {
+    QString text;
+    QRectF box;
+    QRectF area;
+};
+
+std::vector<TextBox> textBoxes(QCustomPlot *plot)
+{
+    std::vector<TextBox> boxes;
+    for (int i = 0; i < plot->itemCount(); ++i) {
+        auto *t = qobject_cast<QCPItemText *>(plot->item(i));
+        if (!t || !t->visible() || !t->clipAxisRect() || t->position->typeX() != QCPItemPosition::ptPlotCoords
+            || t->position->typeY() != QCPItemPosition::ptPlotCoords)
+            continue;
+        const QSizeF size = QFontMetricsF(t->font()).boundingRect(QRectF(0, 0, 1e6, 1e6), Qt::AlignCenter, t->text()).size()
+                            + QSizeF(t->padding().left() + t->padding().right(), t->padding().top() + t->padding().bottom());
+        const QPointF at = t->position->pixelPosition();
+        const Qt::Alignment a = t->positionAlignment();
+        const double x = a & Qt::AlignLeft ? at.x() : a & Qt::AlignRight ? at.x() - size.width() : at.x() - size.width() / 2;
+        const double y = a & Qt::AlignTop ? at.y() : a & Qt::AlignBottom ? at.y() - size.height() : at.y() - size.height() / 2;
+        boxes.push_back({t->text(), QRectF(QPointF(x, y), size), QRectF(t->clipAxisRect()->rect())});
+    }
+    return boxes;
+}
+
+QString describe(const TextBox &b)
+{
+    return QStringLiteral("\"%1\" at (%2, %3)–(%4, %5) px; plot area (%6, %7)–(%8, %9)")
+        .arg(b.text)
+        .arg(b.box.left()).arg(b.box.top()).arg(b.box.right()).arg(b.box.bottom())
+        .arg(b.area.left()).arg(b.area.top()).arg(b.area.right()).arg(b.area.bottom());
+}
+
 } // namespace
 
 class TestChartWidgets : public QObject {
@@ -49,6 +88,8 @@ private slots:
     void tradeoff();
     void tradeoffWithExpectedGain();
     void contributions();
+    void labelsStayInsideTheirPlots_data();
+    void labelsStayInsideTheirPlots();
 };
 
 void TestChartWidgets::lossTail()
@@ -133,6 +174,52 @@ void TestChartWidgets::contributions()
     ContributionsChart pooled;
     pooled.setData(buildContributionsChartData(chartfixture::sampleReport(), {6}));
     grabAndMaybeSave(pooled, "contributions-pooled");
+}
+
+void TestChartWidgets::labelsStayInsideTheirPlots_data()
+{
+    QTest::addColumn<QSize>("size");
+    QTest::newRow("wide") << QSize(900, 500);
+    QTest::newRow("its size hint") << QSize(640, 360);
+}
+
+// The bars' value labels and the map's contour labels are placed for the laid-out size: none is
+// cut by its plot's frame, and no contour label covers the current setting's label.
+void TestChartWidgets::labelsStayInsideTheirPlots()
+{
+    QFETCH(QSize, size);
+    ContributionsChart bars;
+    bars.setData(buildContributionsChartData(chartfixture::sampleReport()));
+    bars.resize(size);
+    bars.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&bars));
+    bars.plot()->replot();
+    int inBars = 0;
+    for (const TextBox &b : textBoxes(bars.plot())) {
+        if (b.area == QRectF(bars.plot()->axisRect(0)->rect()))
+            ++inBars;
+        QVERIFY2(b.area.adjusted(-0.5, -0.5, 0.5, 0.5).contains(b.box), qPrintable(describe(b)));
+    }
+    QCOMPARE(inBars, static_cast<int>(bars.data().bars.size()));
+
+    TradeoffChart map;
+    map.setData(buildTradeoffChartData(chartfixture::sampleReport()));
+    map.resize(size);
+    map.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&map));
+    map.mapPlot()->replot();
+    const std::vector<TextBox> labels = textBoxes(map.mapPlot());
+    const auto now = std::find_if(labels.begin(), labels.end(), [](const TextBox &b) { return b.text.startsWith(QStringLiteral("now:")); });
+    QVERIFY(now != labels.end());
+    int contours = 0;
+    for (const TextBox &b : labels) {
+        QVERIFY2(b.area.adjusted(-0.5, -0.5, 0.5, 0.5).contains(b.box), qPrintable(describe(b)));
+        if (&b != &*now && !b.text.startsWith(QStringLiteral("VaR peaks"))) {
+            ++contours;
+            QVERIFY2(!b.box.intersects(now->box), qPrintable(describe(b) + QStringLiteral(" covers ") + describe(*now)));
+        }
+    }
+    QVERIFY2(contours >= 2, qPrintable(QString::number(contours)));
 }
 
 QTEST_MAIN(TestChartWidgets)

@@ -5,7 +5,10 @@
 
 #include <qcustomplot.h>
 
+#include <QFontMetricsF>
 #include <QVBoxLayout>
+
+#include <algorithm>
 
 #include <cmath>
 
@@ -53,6 +56,9 @@ ContributionsChart::ContributionsChart(QWidget *parent) : QWidget(parent)
     m_plot = new QCustomPlot(this);
     layout->addWidget(m_plot);
     build();
+    // The bars' labels must fit inside the plot, which only the laid-out width in pixels tells:
+    // on screen at every resize, on paper at the print size and fonts.
+    connect(m_plot, &QCustomPlot::afterLayout, this, &ContributionsChart::fitLabelsInside);
     setData(ContributionsChartData{});
 }
 
@@ -127,6 +133,8 @@ void ContributionsChart::setData(const ContributionsChartData &data)
 {
     m_data = data;
     m_plot->clearItems();
+    m_barLabels.clear();
+    m_stepLabels.clear();
     fillBars();
     fillDiversification();
     m_plot->replot(QCustomPlot::rpQueuedReplot);
@@ -155,7 +163,7 @@ void ContributionsChart::fillBars()
     m_hedges->setData(hedgeKeys, hedgeValues, true);
     m_hedges->setVisible(true);
 
-    // Room on both sides for the value labels.
+    // Room on both sides for the value labels (fitLabelsInside makes it exact once laid out).
     const double span = std::max(hi - lo, 1.0);
     money->setRange(lo - (lo < 0.0 ? 0.45 * span : 0.02 * span), hi + 0.4 * span);
     money->setLabel(m_data.valueLabel);
@@ -164,7 +172,69 @@ void ContributionsChart::fillBars()
         QCPItemText *t = valueText(m_plot, m_barsRect, barText(bar),
                                    (bar.hedge ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
         t->position->setCoords(bar.componentVar, n - i);
+        m_barLabels.push_back(t);
     }
+}
+
+void ContributionsChart::fitLabelsInside()
+{
+    // The step's figures stay over their bars, moved in only as far as the frame needs.
+    const QRectF stepArea = m_stepRect->rect();
+    for (auto &[t, key] : m_stepLabels) {
+        if (!t || !m_stepRect->visible())
+            continue;
+        t->position->setCoords(key, t->position->value());
+        const double half = 0.5 * (QFontMetricsF(t->font()).horizontalAdvance(t->text()) + t->padding().left() + t->padding().right());
+        const QPointF at = t->position->pixelPosition();
+        const double x = std::clamp(at.x(), stepArea.left() + half, std::max(stepArea.left() + half, stepArea.right() - half));
+        if (x != at.x())
+            t->position->setPixelPosition(QPointF(x, at.y()));
+    }
+    QCPAxis *money = m_barsRect->axis(QCPAxis::atBottom);
+    const double width = m_barsRect->width();
+    if (m_barLabels.empty() || width < 20.0)
+        return;
+    std::erase_if(m_barLabels, [](const QPointer<QCPItemText> &t) { return t.isNull(); });
+    double barsLo = 0.0, barsHi = 0.0;
+    for (const QCPItemText *t : std::as_const(m_barLabels)) {
+        barsLo = std::min(barsLo, t->position->key());
+        barsHi = std::max(barsHi, t->position->key());
+    }
+    // Each label needs its own pixels beyond its bar's end: right of a risk bar, left of a hedge.
+    // The money per pixel depends on the range being chosen, so a few rounds find a range whose
+    // labels all fit (the fixed point exists while the labels together are narrower than the plot).
+    double lo = barsLo, hi = barsHi;
+    for (int round = 0; round < 12; ++round) {
+        const double perPixel = std::max(hi - lo, 1.0) / width;
+        double newLo = barsLo, newHi = barsHi;
+        for (const QCPItemText *t : std::as_const(m_barLabels)) {
+            const QMargins pad = t->padding();
+            const double pixels = QFontMetricsF(t->font()).horizontalAdvance(t->text()) + pad.left() + pad.right() + 4.0;
+            if (t->positionAlignment() & Qt::AlignRight)
+                newLo = std::min(newLo, t->position->key() - pixels * perPixel);
+            else
+                newHi = std::max(newHi, t->position->key() + pixels * perPixel);
+        }
+        // Never more than ten times the bars' span: labels that cannot fit are cut, not the bars lost.
+        const double span = std::max(barsHi - barsLo, 1.0);
+        lo = std::max(newLo, barsLo - 5.0 * span);
+        hi = std::min(newHi, barsHi + 5.0 * span);
+    }
+    const double margin = 0.02 * (hi - lo);
+    const QCPRange fitted(lo - (barsLo < 0.0 || lo < barsLo ? margin : 0.0), hi + margin);
+    if (std::abs(fitted.lower - money->range().lower) < 1e-9 * (1.0 + std::abs(fitted.lower))
+        && std::abs(fitted.upper - money->range().upper) < 1e-9 * (1.0 + std::abs(fitted.upper)))
+        return;
+    money->setRange(fitted);
+    // No more numbers along the axis than its width holds at its font.
+    const QString widest = chartstyle::money(-std::max(std::abs(fitted.lower), std::abs(fitted.upper)));
+    const double tickWidth = QFontMetricsF(money->tickLabelFont()).horizontalAdvance(widest);
+    money->ticker()->setTickCount(std::clamp(static_cast<int>(width / (1.5 * std::max(tickWidth, 1.0))), 2, 6));
+    // The ticks were made for the old range: lay out once more (as QCustomPlot's own layout
+    // step does; the width of the plot does not depend on the money range).
+    m_plot->plotLayout()->update(QCPLayoutElement::upPreparation);
+    m_plot->plotLayout()->update(QCPLayoutElement::upMargins);
+    m_plot->plotLayout()->update(QCPLayoutElement::upLayout);
 }
 
 void ContributionsChart::fillDiversification()
@@ -190,12 +260,21 @@ void ContributionsChart::fillDiversification()
     step->setPen(QPen(chartstyle::teal().darker(140), 1, Qt::DashLine));
     step->setBrush(QBrush(chartstyle::teal().lighter(150), Qt::Dense4Pattern));
 
-    valueText(m_plot, m_stepRect, chartstyle::money(whole), Qt::AlignHCenter | Qt::AlignBottom)->position->setCoords(1.0, whole);
-    valueText(m_plot, m_stepRect, chartstyle::money(var), Qt::AlignHCenter | Qt::AlignBottom)->position->setCoords(3.0, var);
+    QCPItemText *wholeText = valueText(m_plot, m_stepRect, chartstyle::money(whole), Qt::AlignHCenter | Qt::AlignBottom);
+    wholeText->position->setCoords(1.0, whole);
+    m_stepLabels.emplace_back(wholeText, 1.0);
+    QCPItemText *varText = valueText(m_plot, m_stepRect, chartstyle::money(var), Qt::AlignHCenter | Qt::AlignBottom);
+    varText->position->setCoords(3.0, var);
+    m_stepLabels.emplace_back(varText, 3.0);
     // The benefit's figure sits inside its step, clear of the bars' own labels.
-    valueText(m_plot, m_stepRect, QLocale().negativeSign() + chartstyle::money(m_data.diversificationBenefit),
-              Qt::AlignCenter)
-        ->position->setCoords(2.0, 0.5 * (whole + var));
+    // On a white ground: on a narrow panel the figure is wider than the step, and its dashed edges
+    // would run through the digits.
+    QCPItemText *benefit = valueText(m_plot, m_stepRect, QLocale().negativeSign() + chartstyle::money(m_data.diversificationBenefit),
+                                     Qt::AlignCenter);
+    benefit->position->setCoords(2.0, 0.5 * (whole + var));
+    benefit->setBrush(QColor(255, 255, 255, 235));
+    benefit->setPen(QPen(chartstyle::teal().darker(140), 1));
+    m_stepLabels.emplace_back(benefit, 2.0);
     QCPItemText *note = valueText(m_plot, m_stepRect, m_data.benefitText, Qt::AlignHCenter | Qt::AlignTop);
     note->position->setTypeY(QCPItemPosition::ptAxisRectRatio);
     note->position->setCoords(2.0, 0.01);

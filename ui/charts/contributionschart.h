@@ -5,11 +5,16 @@
 
 #include "charts/contributionschartdata.h"
 
+#include <QPointer>
 #include <QWidget>
+
+#include <utility>
+#include <vector>
 
 class QCustomPlot;
 class QCPAxisRect;
 class QCPBars;
+class QCPItemText;
 
 namespace tailwise::ui {
 
@@ -29,6 +34,7 @@ private:
     void build();
     void fillBars();
     void fillDiversification();
+    void fitLabelsInside();
 
     ContributionsChartData m_data;
     QCustomPlot *m_plot = nullptr;
@@ -37,6 +43,9 @@ private:
     QCPBars *m_adders = nullptr;
     QCPBars *m_hedges = nullptr;
     QCPBars *m_stepBars = nullptr;
+    // Guarded: the print layout removes items of a panel it leaves out.
+    std::vector<QPointer<QCPItemText>> m_barLabels; // one per bar, at the bar's end
+    std::vector<std::pair<QPointer<QCPItemText>, double>> m_stepLabels; // the step's figures, their home key
 };
 
 } // namespace tailwise::ui

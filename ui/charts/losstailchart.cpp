@@ -162,10 +162,10 @@ void LossTailChart::setData(const LossTailChartData &data)
     placeVertical(m_esLine, data.esMarker);
     m_varText->setText(data.varLabel);
     m_esText->setText(data.esLabel);
-    // Labels stack on the left of their lines, ES (further out) above VaR, so neither covers the
-    // other; both sit below the legend's height.
+    // ES's label left of its line (further out), VaR's right of its own: left of it, VaR's label
+    // would cross ES's line wherever the two lines are close. Both sit below the legend's height.
     m_varText->position->setCoords(data.tailBoundary, 0.36);
-    m_varText->setPositionAlignment(Qt::AlignRight | Qt::AlignVCenter);
+    m_varText->setPositionAlignment(Qt::AlignLeft | Qt::AlignVCenter);
     m_esText->position->setCoords(data.esMarker, 0.27);
     m_esText->setPositionAlignment(Qt::AlignRight | Qt::AlignVCenter);
     // Without a spread VaR and ES coincide at the one certain P&L: one marker says it.
@@ -175,7 +175,7 @@ void LossTailChart::setData(const LossTailChartData &data)
     p->xAxis->setTicker(QSharedPointer<QCPAxisTicker>(
         new LocaleTicker(data.unit == LossTailUnit::PercentOfValue ? QLocale().percent() : QString())));
     p->xAxis->setLabel(data.xLabel);
-    p->yAxis->setLabel(data.yLabel + QStringLiteral(" (%)"));
+    p->yAxis->setLabel(data.yLabel);
     p->xAxis->setRange(data.xMin, data.xMax);
     p->yAxis->setRange(0.0, data.densityMax > 0.0 ? data.densityMax * f * 1.35 : 1.0);
 

@@ -215,7 +215,8 @@ LossTailChartData buildLossTailChartData(const RiskReport &report, const LossTai
     d.densityDisplayPer = chartstyle::niceStep(d.xMax - d.xMin, 100);
     const QString per = d.unit == LossTailUnit::Money ? chartstyle::money(d.densityDisplayPer, d.densityDisplayPer < 1 ? 2 : 0)
                                                       : QLocale().toString(d.densityDisplayPer, 'g', 3) + QLocale().percent();
-    d.yLabel = tr("Probability per %1 of P&L").arg(per);
+    // Two short lines: along the axis one long line is cut or shrunk on small pictures.
+    d.yLabel = tr("Probability (%)\nper %1 of P&L").arg(per);
     return d;
 }
 

@@ -5,9 +5,11 @@
 
 #include <qcustomplot.h>
 
+#include <QFontMetricsF>
 #include <QGridLayout>
 #include <QLabel>
 
+#include <algorithm>
 #include <cmath>
 
 namespace tailwise::ui {
@@ -113,6 +115,9 @@ TradeoffChart::TradeoffChart(QWidget *parent) : QWidget(parent)
     buildConfidencePlot();
     buildMapPlot();
     connect(m_mapPlot, &QCustomPlot::mousePress, this, &TradeoffChart::mapClicked);
+    // Labels are placed in pixels, so again at every layout: on screen at each resize, on paper
+    // at the print size and fonts.
+    connect(m_mapPlot, &QCustomPlot::afterLayout, this, &TradeoffChart::placeContourLabels);
     m_mapPlot->setCursor(Qt::CrossCursor);
     setData(TradeoffChartData{});
 }
@@ -279,6 +284,8 @@ void TradeoffChart::fillMapPlot()
         if (p->plottable(i) != m_map)
             p->removePlottable(i);
     p->clearItems();
+    m_contourLabels.clear();
+    m_fixedLabels.clear();
     const RiskGrid &g = m_data.map;
     const int nx = static_cast<int>(g.horizons.size());
     const int ny = static_cast<int>(g.confidences.size());
@@ -303,7 +310,8 @@ void TradeoffChart::fillMapPlot()
                                                       : QCPRange(m_data.varMin - 1.0, m_data.varMin + 1.0));
 
     const QColor lineInk(0x1d, 0x26, 0x2f);
-    for (const ContourLevel &level : m_data.contours) {
+    for (std::size_t k = 0; k < m_data.contours.size(); ++k) {
+        const ContourLevel &level = m_data.contours[k];
         for (const ContourLine &line : level.lines) {
             auto *curve = new QCPCurve(p->xAxis, p->yAxis);
             curve->setPen(QPen(lineInk, 1));
@@ -318,6 +326,7 @@ void TradeoffChart::fillMapPlot()
         QCPItemText *label = note(p, level.label, Qt::AlignCenter);
         label->setBrush(QColor(255, 255, 255, 190));
         label->position->setCoords(level.labelAt.x, level.labelAt.y);
+        m_contourLabels.emplace_back(label, k);
     }
 
     if (!m_data.ridge.empty()) {
@@ -334,6 +343,7 @@ void TradeoffChart::fillMapPlot()
                                   (mid.x > 0.45 * n ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
         label->setColor(chartstyle::rust().darker(140));
         label->position->setCoords(mid.x + (mid.x > 0.45 * n ? -4.0 : 4.0), mid.y);
+        m_fixedLabels.push_back(label);
     }
 
     // The current setting: a ring with a cross, readable on light and dark cells.
@@ -350,7 +360,75 @@ void TradeoffChart::fillMapPlot()
                               (m_data.horizonDays > 0.6 * n ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignBottom);
     label->position->setCoords(m_data.horizonDays + (m_data.horizonDays > 0.6 * n ? -3.0 : 3.0),
                                confidenceToTailScale(m_data.confidence) + 0.03);
+    m_fixedLabels.push_back(label);
     p->replot(QCustomPlot::rpQueuedReplot);
+}
+
+namespace {
+
+// The pixel box a text item fills at a pixel anchor, padding included.
+QRectF textBox(const QCPItemText *t, const QPointF &anchor)
+{
+    const QSizeF text = QFontMetricsF(t->font()).boundingRect(QRectF(0, 0, 1e6, 1e6), Qt::AlignCenter, t->text()).size();
+    const QMargins m = t->padding();
+    QRectF box(QPointF(0, 0), QSizeF(text.width() + m.left() + m.right(), text.height() + m.top() + m.bottom()));
+    const Qt::Alignment a = t->positionAlignment();
+    const double x = a & Qt::AlignLeft ? anchor.x() : a & Qt::AlignRight ? anchor.x() - box.width() : anchor.x() - box.width() / 2.0;
+    const double y = a & Qt::AlignTop ? anchor.y() : a & Qt::AlignBottom ? anchor.y() - box.height() : anchor.y() - box.height() / 2.0;
+    box.moveTopLeft(QPointF(x, y));
+    return box;
+}
+
+// Pixels between two boxes (0 when they touch or overlap).
+double gapBetween(const QRectF &a, const QRectF &b)
+{
+    const double dx = std::max({0.0, a.left() - b.right(), b.left() - a.right()});
+    const double dy = std::max({0.0, a.top() - b.bottom(), b.top() - a.bottom()});
+    return std::hypot(dx, dy);
+}
+
+} // namespace
+
+void TradeoffChart::placeContourLabels()
+{
+    QCustomPlot *p = m_mapPlot;
+    const QRectF plotArea = QRectF(p->axisRect()->rect()).adjusted(2, 2, -2, -2);
+    if (m_contourLabels.empty() || plotArea.width() < 10.0 || plotArea.height() < 10.0)
+        return;
+    // Kept clear: the marker of the current setting, its label and the ridge's note, then each
+    // contour label as it is placed.
+    std::vector<QRectF> taken;
+    const QPointF marker(p->xAxis->coordToPixel(m_data.horizonDays), p->yAxis->coordToPixel(confidenceToTailScale(m_data.confidence)));
+    taken.emplace_back(marker - QPointF(9, 9), QSizeF(18, 18));
+    for (const QCPItemText *t : m_fixedLabels)
+        taken.push_back(textBox(t, t->position->pixelPosition()));
+    // Each label at the point of its lines that lies inside the plot with the most room around it
+    // (from the frame and from what is kept clear); a level with no such point goes unlabelled
+    // rather than cut or covering another label (the colour scale still gives its value).
+    for (auto &[label, k] : m_contourLabels) {
+        double best = -1.0;
+        QPointF bestAt;
+        QRectF bestBox;
+        for (const ContourLine &line : m_data.contours[k].lines)
+            for (const ContourPoint &pt : line) {
+                const QPointF at(p->xAxis->coordToPixel(pt.x), p->yAxis->coordToPixel(pt.y));
+                const QRectF box = textBox(label, at);
+                double room = std::min({box.left() - plotArea.left(), plotArea.right() - box.right(),
+                                        box.top() - plotArea.top(), plotArea.bottom() - box.bottom()});
+                for (const QRectF &other : taken)
+                    room = std::min(room, box.intersects(other) ? -1.0 : gapBetween(box, other));
+                if (room > best) {
+                    best = room;
+                    bestAt = at;
+                    bestBox = box;
+                }
+            }
+        label->setVisible(best >= 0.0);
+        if (best >= 0.0) {
+            label->position->setPixelPosition(bestAt);
+            taken.push_back(bestBox);
+        }
+    }
 }
 
 QPoint TradeoffChart::mapPixel(int horizonDays, double confidence) const

@@ -4,6 +4,10 @@
 // where VaR turns down. Clicking the map emits assumptionsPicked; the view itself changes nothing.
 #pragma once
 
+#include <cstddef>
+#include <utility>
+#include <vector>
+
 #include "charts/tradeoffchartdata.h"
 
 #include <QWidget>
@@ -48,6 +52,7 @@ private:
     void fillConfidencePlot();
     void fillMapPlot();
     void mapClicked(QMouseEvent *event);
+    void placeContourLabels();
 
     TradeoffChartData m_data;
     QLabel *m_note = nullptr;
@@ -56,6 +61,9 @@ private:
     QCustomPlot *m_mapPlot = nullptr;
     QCPColorMap *m_map = nullptr;
     QCPColorScale *m_scale = nullptr;
+    // The map's labels, placed in pixels once the map is laid out (placeContourLabels).
+    std::vector<std::pair<QCPItemText *, std::size_t>> m_contourLabels; // label, its level
+    std::vector<QCPItemText *> m_fixedLabels;                           // "now", the ridge's note
 };
 
 } // namespace tailwise::ui

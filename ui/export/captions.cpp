@@ -31,7 +31,7 @@ QString lossTailCaption(const WorkbookResults &w)
 {
     const RiskReport &r = w.report;
     const QString over = tr("Over %1, at %2 confidence, the loss that is not expected to be exceeded (Value-at-Risk) is "
-                            "%3%4; in the days when it is exceeded, the loss averages %5%6 (Expected Shortfall).")
+                            "%3%4; the average loss beyond it (Expected Shortfall) is %5%6.")
                              .arg(daysText(r.assumptions.horizonDays), confidenceText(r.assumptions.confidence),
                                   money(r.figures.var), shareText(r.varFraction), money(r.figures.es),
                                   shareText(r.esFraction));
@@ -80,7 +80,7 @@ QString contributionsCaption(const WorkbookResults &w)
     if (hedges == 1)
         text += QLatin1Char(' ') + tr("One holding is a hedge and lowers VaR.");
     else if (hedges > 1)
-        text += QLatin1Char(' ') + tr("%1 holdings are hedges and lower VaR.").arg(QLocale().toString(static_cast<int>(hedges)));
+        text += QLatin1Char(' ') + tr("Of the holdings, %1 are hedges and lower VaR.").arg(QLocale().toString(static_cast<int>(hedges)));
     text += QLatin1Char(' ')
           + tr("Held on their own the holdings' VaRs would sum to %1; held together they offset each other by %2.")
                 .arg(money(d.undiversifiedVar), money(d.diversificationBenefit));
@@ -132,7 +132,7 @@ QString modelsCaption(const WorkbookResults &w)
                        .arg(daysText(d.horizonDays), confidenceText(d.confidence));
     for (const ModelComparisonGroup &g : d.groups)
         if (g.current && g.hasFigures)
-            text += QLatin1Char(' ') + tr("Under the %1 model of the headline figures, VaR is %2 and ES %3.")
+            text += QLatin1Char(' ') + tr("Under the headline figures' model (%1), VaR is %2 and ES %3.")
                                            .arg(g.model, money(g.var), money(g.es));
     if (low && high)
         text += QLatin1Char(' ') + tr("VaR ranges from %1 (%2) to %3 (%4).")

@@ -135,7 +135,14 @@ void applyPrintStyle(QCustomPlot *plot, const QSizeF &pane, const PrintFonts &fo
             if (!axis || axis->label().isEmpty())
                 continue;
             QFont f = axis->labelFont();
-            while (f.pixelSize() > 7 && QFontMetricsF(f).horizontalAdvance(axis->label()) > room)
+            const QStringList lines = axis->label().split(QLatin1Char('\n'));
+            const auto longest = [&] {
+                double w = 0.0;
+                for (const QString &line : lines)
+                    w = std::max(w, QFontMetricsF(f).horizontalAdvance(line));
+                return w;
+            };
+            while (f.pixelSize() > 7 && longest() > room)
                 f.setPixelSize(f.pixelSize() - 1);
             axis->setLabelFont(f);
         }
@@ -146,6 +153,12 @@ void applyPrintStyle(QCustomPlot *plot, const QSizeF &pane, const PrintFonts &fo
     const int icon = QFontMetrics(legendFont).height();
     plot->legend->setIconSize(2 * icon, icon);
     plot->legend->setRowSpacing(0);
+    // Entries too wide for one row go on more rows (each column as wide as its widest entry)
+    // before any text is made smaller.
+    while (plot->legend->wrap() > 1 && plot->legend->minimumOuterSizeHint().width() > pane.width() - 8.0) {
+        plot->legend->setWrap(plot->legend->wrap() - 1);
+        plot->legend->setFillOrder(plot->legend->fillOrder(), true);
+    }
     while (legendFont.pixelSize() > 7 && plot->legend->minimumOuterSizeHint().width() > pane.width() - 8.0) {
         legendFont.setPixelSize(legendFont.pixelSize() - 1);
         plot->legend->setFont(legendFont);
@@ -193,25 +206,28 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
         chart->clearPointer();
         // One entry a row: the entries are sentences that two columns would cut.
         moveLegendBelow(chart->plot(), 1);
-        // The VaR and ES labels sit left of their lines; where the tail leaves too little room
-        // for them on paper, both go right of their lines instead, further apart (ES above).
+        // On paper the VaR and ES labels are placed so that neither crosses a line (below).
         QCustomPlot *p = chart->plot();
         const LossTailChartData &d = chart->data();
         const PrintFonts fonts = fontsFor(options.sizeMm);
         const auto room = [&](double x) { return (x - d.xMin) / std::max(1e-12, d.xMax - d.xMin) * area.width() * 0.8; };
         std::vector<QCPItemText *> labels;
-        bool cramped = false;
         for (int i = 0; i < p->itemCount(); ++i)
-            if (auto *t = qobject_cast<QCPItemText *>(p->item(i)); t && (t->text() == d.varLabel || t->text() == d.esLabel)) {
+            if (auto *t = qobject_cast<QCPItemText *>(p->item(i)); t && (t->text() == d.varLabel || t->text() == d.esLabel))
                 labels.push_back(t);
-                const double width = QFontMetricsF(fonts.scaled(t->font())).horizontalAdvance(t->text()) + 12.0;
-                cramped = cramped || width > room(t->position->key());
-            }
-        if (cramped)
-            for (QCPItemText *t : labels) {
-                t->setPositionAlignment(Qt::AlignLeft | Qt::AlignVCenter);
-                t->position->setCoords(t->position->key(), t->text() == d.esLabel ? 0.12 : 0.45);
-            }
+        // A label right of a line goes right of the innermost line (VaR's): ES's label right of
+        // its own line would cross VaR's.
+        const double inner = std::max(d.tailBoundary, d.esMarker);
+        // Left of its own line VaR's label would cross ES's line wherever the two lines are closer
+        // than the label is wide, so on paper it always goes right of its line; ES's stays left of
+        // its line where it fits.
+        for (QCPItemText *t : labels) {
+            const double width = QFontMetricsF(fonts.scaled(t->font())).horizontalAdvance(t->text()) + 12.0;
+            const bool es = t->text() == d.esLabel;
+            const bool fitsLeft = es && width <= room(t->position->key());
+            t->setPositionAlignment((fitsLeft ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
+            t->position->setCoords(fitsLeft ? t->position->key() : inner, es ? 0.12 : 0.3);
+        }
         charts.note = chart->data().note;
         charts.panes.push_back({chart->plot(), area});
         break;
@@ -220,22 +236,29 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
         auto *chart = new TradeoffChart(host);
         chart->setData(results.tradeoff);
         charts.note = results.tradeoff.note;
+        // On paper the horizon lines' legend goes under them: inside, at print sizes, it covers
+        // the lines and is cut by the frame.
+        moveLegendBelow(chart->horizonPlot(), 3);
+        chart->horizonPlot()->yAxis->ticker()->setTickCount(3);
         const double gap = canvasUnits(3.0);
         if (area.width() < canvasUnits(120.0)) {
             // A column has room for one picture: the map, which holds both the others.
             charts.panes.push_back({chart->mapPlot(), area});
         } else if (area.width() < area.height() * 1.1) {
             // Tall: the three pictures stacked, the map with the most room.
-            const double h = (area.height() - 2.0 * gap) / 4.0;
-            charts.panes.push_back({chart->horizonPlot(), QRectF(area.left(), area.top(), area.width(), h)});
-            charts.panes.push_back({chart->confidencePlot(), QRectF(area.left(), area.top() + h + gap, area.width(), h)});
-            charts.panes.push_back({chart->mapPlot(), QRectF(area.left(), area.top() + 2.0 * (h + gap), area.width(), 2.0 * h)});
+            // (The horizon lines a little more, for their legend under them.)
+            const double h = (area.height() - 2.0 * gap) / 4.3;
+            charts.panes.push_back({chart->horizonPlot(), QRectF(area.left(), area.top(), area.width(), 1.3 * h)});
+            charts.panes.push_back({chart->confidencePlot(), QRectF(area.left(), area.top() + 1.3 * h + gap, area.width(), h)});
+            charts.panes.push_back({chart->mapPlot(), QRectF(area.left(), area.top() + 2.3 * h + 2.0 * gap, area.width(), 2.0 * h)});
         } else {
             // Wide: as on screen, the two lines on the left, the map on the right.
+            // The horizon lines get the more height: their legend sits under them.
             const double left = (area.width() - gap) * 10.0 / 23.0;
-            const double h = (area.height() - gap) / 2.0;
+            const double h = (area.height() - gap) * 0.58;
+            const double h2 = area.height() - gap - h;
             charts.panes.push_back({chart->horizonPlot(), QRectF(area.left(), area.top(), left, h)});
-            charts.panes.push_back({chart->confidencePlot(), QRectF(area.left(), area.top() + h + gap, left, h)});
+            charts.panes.push_back({chart->confidencePlot(), QRectF(area.left(), area.top() + h + gap, left, h2)});
             charts.panes.push_back({chart->mapPlot(), QRectF(area.left() + left + gap, area.top(), area.width() - left - gap, area.height())});
         }
         break;
@@ -267,10 +290,7 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
             p->plotLayout()->simplify();
         }
         if (QCPAxisRect *bars = p->axisRect(0)) {
-            QCPAxis *money = bars->axis(QCPAxis::atBottom);
-            const double span = money->range().size();
-            money->setRange(money->range().lower - (money->range().lower < 0.0 ? 0.3 * span : 0.0),
-                            money->range().upper + 0.2 * span);
+            // (The money range is fitted to the labels by the chart itself, once laid out.)
             // Under the bars, where it covers no hedge.
             if (auto *inset = bars->insetLayout(); inset && inset->elements(false).contains(p->legend)) {
                 inset->take(p->legend);
@@ -319,17 +339,18 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
                                                                  .replace(QStringLiteral("–"), QStringLiteral("–\n")));
                 ticker->setTicks(ticks);
             }
+            // The bars' figures are wider than a group here and would run into each other: the
+            // caption gives the headline, lowest and highest figures instead. The axis label on
+            // two lines keeps a legible size.
             QCustomPlot *p = chart->plot();
             for (int i = p->itemCount() - 1; i >= 0; --i)
                 if (auto *t = qobject_cast<QCPItemText *>(p->item(i))) {
                     const double key = t->position->key();
-                    if (key > std::round(key) + 0.001) { // the ES figures sit right of the key
+                    if (std::abs(key - std::round(key)) > 0.001) // the figures sit beside their key
                         p->removeItem(t);
-                    } else if (key < std::round(key) - 0.001) { // a VaR figure: over its bar
-                        t->position->setCoords(std::round(key) - 0.175, t->position->value());
-                        t->setPositionAlignment(Qt::AlignHCenter | Qt::AlignBottom);
-                    }
                 }
+            p->yAxis->setLabel(p->yAxis->label().replace(QStringLiteral(" ("), QStringLiteral("\n(")));
+            p->yAxis->ticker()->setTickCount(3); // a short axis: fewer, legible numbers
         }
         charts.note = results.modelsChart->note;
         charts.panes.push_back({chart->plot(), area});

@@ -220,7 +220,7 @@ QVariant HoldingsModel::headerData(int section, Qt::Orientation orientation, int
         case StandaloneVarColumn: return tr("The Value-at-Risk this holding would have if it were the whole portfolio.");
         case VarShareColumn:
             return tr("This holding's part of the portfolio's VaR (its component VaR over the total). "
-                      "The parts add up to 100 %; a negative part is a hedge that lowers the total.");
+                      "The parts add up to 100%; a negative part is a hedge that lowers the total.");
         default: return {};
         }
     }

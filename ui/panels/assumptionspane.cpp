@@ -78,13 +78,13 @@ void AssumptionsPane::buildWidgets()
     m_confidence->setRange(50.0, 99.99);
     m_confidence->setDecimals(2);
     m_confidence->setSingleStep(0.1);
-    m_confidence->setSuffix(QStringLiteral(" %"));
-    m_confidence->setToolTip(tr("Confidence: how often the loss should stay below VaR. At 99 %, a loss larger "
+    m_confidence->setSuffix(QStringLiteral("%"));
+    m_confidence->setToolTip(tr("Confidence: how often the loss should stay below VaR. At 99%, a loss larger "
                                 "than VaR is expected on about 1 horizon in 100."));
     m_confidenceSlider = new QSlider(Qt::Horizontal, this);
     m_confidenceSlider->setObjectName(QStringLiteral("confidenceSlider"));
     m_confidenceSlider->setRange(kSliderMin, kSliderMax);
-    m_confidenceSlider->setToolTip(tr("Drag to change the confidence between 90 % and 99.9 %."));
+    m_confidenceSlider->setToolTip(tr("Drag to change the confidence between 90% and 99.9%."));
     form->addRow(tr("Confidence"), m_confidence);
     form->addRow(QString(), m_confidenceSlider);
     auto *quick = new QHBoxLayout;
@@ -92,7 +92,7 @@ void AssumptionsPane::buildWidgets()
     for (double c : kQuickConfidences) {
         auto *b = new QToolButton(this);
         b->setText(QLocale().toString(c * 100.0, 'g', 4));
-        b->setToolTip(tr("Set the confidence to %1 %").arg(b->text()));
+        b->setToolTip(tr("Set the confidence to %1%").arg(b->text()));
         connect(b, &QToolButton::clicked, this, [this, c] { setConfidence(c, edit::MergeKey::None); });
         quick->addWidget(b);
     }
@@ -266,7 +266,7 @@ void AssumptionsPane::setConfidence(double confidence, edit::MergeKey key)
     if (std::abs(a.confidence - confidence) < 1e-12)
         return;
     a.confidence = confidence;
-    commit(a, tr("Set confidence to %1 %").arg(QLocale().toString(confidence * 100.0, 'g', 4)), key);
+    commit(a, tr("Set confidence to %1%").arg(QLocale().toString(confidence * 100.0, 'g', 4)), key);
 }
 
 void AssumptionsPane::setHorizon(int days)

@@ -119,8 +119,8 @@ BacktestView::BacktestView(Workbook &workbook, QWidget *parent) : QWidget(parent
     m_testSize->setDecimals(1);
     m_testSize->setSingleStep(1.0);
     m_testSize->setKeyboardTracking(false);
-    m_testSize->setSuffix(QStringLiteral(" %"));
-    m_testSize->setToolTip(tr("A test rejects the model when its p-value is below this size (5 % is usual)."));
+    m_testSize->setSuffix(QStringLiteral("%"));
+    m_testSize->setToolTip(tr("A test rejects the model when its p-value is below this size (5% is usual)."));
     m_model = new QComboBox(this);
     m_model->setObjectName(QStringLiteral("backtestModel"));
     for (const RiskModel m : backtestModels())

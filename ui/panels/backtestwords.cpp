@@ -27,7 +27,7 @@ QString pValueText(double p)
 // A test size as a percentage without trailing zeros (0.05 → "5 %").
 QString sizeText(double testSize)
 {
-    return QLocale().toString(testSize * 100.0, 'g', 4) + QStringLiteral(" %");
+    return QLocale().toString(testSize * 100.0, 'g', 4) + QStringLiteral("%");
 }
 
 QString zoneName(Zone zone)

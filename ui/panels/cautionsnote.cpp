@@ -16,7 +16,7 @@ CautionsNote::CautionsNote(QWidget *parent) : QLabel(parent)
 QString CautionsNote::shortText()
 {
     return tr("Estimates, not advice. VaR is not the worst case: larger losses happen, about once in 100 horizons "
-              "at 99 %, and Expected Shortfall is only their average under the model. The figures rest on the "
+              "at 99%, and Expected Shortfall is only their average under the model. The figures rest on the "
               "model and on the price history; a calm window understates risk. More in Help ▸ About.");
 }
 
@@ -28,7 +28,7 @@ QList<CautionsNote::Caution> CautionsNote::cautions()
             "over the horizon with the chosen confidence. Expected Shortfall (ES) is the average loss in the cases "
             "beyond VaR.")},
         {tr("What they are not."),
-         tr("VaR is not the worst case: at 99 % a larger loss is expected about once in every 100 horizons, and it "
+         tr("VaR is not the worst case: at 99% a larger loss is expected about once in every 100 horizons, and it "
             "can be much larger. Neither figure is a forecast, a guarantee or advice to buy, sell or hedge.")},
         {tr("Model and data limits."),
          tr("The figures assume the holdings stay unchanged over the horizon and that the past window describes "

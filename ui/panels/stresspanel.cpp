@@ -235,10 +235,10 @@ void StressPanel::addShockRow(const std::string &asset, double shock)
     auto *spin = new QDoubleSpinBox(m_shocks);
     spin->setRange(-99.99, 1000.0);
     spin->setDecimals(2);
-    spin->setSuffix(QStringLiteral(" %"));
+    spin->setSuffix(QStringLiteral("%"));
     spin->setKeyboardTracking(false);
     spin->setValue(shock * 100.0);
-    spin->setToolTip(tr("The change of the asset's price in this scenario: −20 % means it falls by a fifth."));
+    spin->setToolTip(tr("The change of the asset's price in this scenario: −20% means it falls by a fifth."));
     m_shocks->setCellWidget(row, 0, combo);
     m_shocks->setCellWidget(row, 1, spin);
     connect(combo, &QComboBox::currentIndexChanged, this, &StressPanel::commitShocksFromTable);

@@ -1,7 +1,8 @@
 // `tailwise-cli render` as a user runs it: each chart of the sample workbook (which carries a
 // backtest setting) is written with no display at all (no QT_QPA_PLATFORM, no DISPLAY: the
 // command picks Qt's offscreen platform itself), in each format, at the size and dpi asked;
-// captions are given, generated or left out; bad options exit 2 naming the option, a bad
+// captions are given, generated or left out; on success it says what it wrote and stderr stays
+// empty, even with no XDG_RUNTIME_DIR; bad options exit 2 naming the option, a bad
 // workbook exits 1 naming the file; and the commands that do not draw still run where no GUI
 // platform can start. Format facts: PNG signature (ISO/IEC 15948), PDF header (ISO 32000-1).
 #include <QFile>
@@ -31,6 +32,8 @@ Run runCli(const QStringList &args, const QString &platform = {})
     env.remove(QStringLiteral("QT_QPA_PLATFORM"));
     env.remove(QStringLiteral("DISPLAY"));
     env.remove(QStringLiteral("WAYLAND_DISPLAY"));
+    // As root in a container or under cron: no session runtime folder either.
+    env.remove(QStringLiteral("XDG_RUNTIME_DIR"));
     if (!platform.isEmpty())
         env.insert(QStringLiteral("QT_QPA_PLATFORM"), platform);
     p.setProcessEnvironment(env);
@@ -101,6 +104,11 @@ void TestCliRender::everyChartWithoutADisplay()
     QImage image;
     QVERIFY(image.loadFromData(png, "PNG"));
     QCOMPARE(image.size(), QSize(502, 443)); // 85 × 75 mm at 150 dpi: round(mm / 25.4 × 150)
+    // A script sees only our own words: what was written on stdout, nothing from Qt on stderr.
+    QVERIFY2(r.err.isEmpty(), qPrintable(describe(args, r)));
+    QVERIFY2(r.out.startsWith(QStringLiteral("Wrote ")) && r.out.contains(out)
+                 && r.out.contains(QStringLiteral("PNG, 85 × 75 mm, 502 × 443 px at 150 dpi")),
+             qPrintable(describe(args, r)));
 }
 
 void TestCliRender::svgAndPdfAtAPreset()
