@@ -1,5 +1,7 @@
 #include "backtestcommand.h"
 
+#include "exitstatus.h"
+
 #include "backtestoptions.h"
 #include "backtestprint.h"
 
@@ -12,16 +14,6 @@
 namespace tailwise::cli {
 
 namespace {
-
-constexpr int exitOk = 0;
-constexpr int exitBadInput = 1;
-constexpr int exitUsage = 2;
-
-int fail(int code, const std::string &message)
-{
-    std::fprintf(stderr, "tailwise-cli: %s\n", message.c_str());
-    return code;
-}
 
 // A core error about a field is said as the option the user typed ("window: …" → "--window: …").
 std::string messageFor(const Error &error)

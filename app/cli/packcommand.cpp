@@ -1,5 +1,7 @@
 #include "packcommand.h"
 
+#include "exitstatus.h"
+
 #include "varoptions.h"
 
 #include "document/currencycode.h"
@@ -21,16 +23,6 @@
 namespace tailwise::cli {
 
 namespace {
-
-constexpr int exitOk = 0;
-constexpr int exitBadInput = 1;
-constexpr int exitUsage = 2;
-
-int fail(int code, const std::string &message)
-{
-    std::fprintf(stderr, "tailwise-cli: %s\n", message.c_str());
-    return code;
-}
 
 // --backtest-window W, --backtest-test-size A, --backtest-models LIST: the window's backtest
 // settings, stored when any of them is given. Ok, or the usage message naming the option.

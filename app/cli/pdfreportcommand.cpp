@@ -1,5 +1,7 @@
 #include "pdfreportcommand.h"
 
+#include "exitstatus.h"
+
 #include "guiapplication.h"
 #include "optiontext.h"
 #include "workbookinput.h"
@@ -19,16 +21,6 @@
 namespace tailwise::cli {
 
 namespace {
-
-constexpr int exitOk = 0;
-constexpr int exitBadInput = 1;
-constexpr int exitUsage = 2;
-
-int fail(int code, const std::string &message)
-{
-    std::fprintf(stderr, "tailwise-cli: %s\n", message.c_str());
-    return code;
-}
 
 struct PdfReportOptions {
     bool help = false;

@@ -1,5 +1,7 @@
 #include "rendercommand.h"
 
+#include "exitstatus.h"
+
 #include "guiapplication.h"
 #include "renderoptions.h"
 #include "workbookinput.h"
@@ -17,16 +19,6 @@
 namespace tailwise::cli {
 
 namespace {
-
-constexpr int exitOk = 0;
-constexpr int exitBadInput = 1;
-constexpr int exitUsage = 2;
-
-int fail(int code, const std::string &message)
-{
-    std::fprintf(stderr, "tailwise-cli: %s\n", message.c_str());
-    return code;
-}
 
 } // namespace
 
