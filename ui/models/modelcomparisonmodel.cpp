@@ -1,5 +1,6 @@
 #include "modelcomparisonmodel.h"
 
+#include "panels/assumptionlabels.h"
 #include "panels/localnumbers.h"
 
 #include <QBrush>
@@ -38,14 +39,7 @@ int ModelComparisonModel::columnCount(const QModelIndex &parent) const
 
 QString ModelComparisonModel::modelName(RiskModel model)
 {
-    switch (model) {
-    case RiskModel::Normal: return tr("Normal");
-    case RiskModel::StudentT: return tr("Student-t");
-    case RiskModel::CornishFisher: return tr("Cornish–Fisher");
-    case RiskModel::Historical: return tr("Historical");
-    case RiskModel::MonteCarlo: return tr("Monte Carlo");
-    }
-    return {};
+    return modelLabel(model); // the one list of model names, assumptionlabels.h
 }
 
 const ModelRow *ModelComparisonModel::normalRow() const

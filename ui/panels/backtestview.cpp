@@ -1,5 +1,6 @@
 #include "panels/backtestview.h"
 
+#include "panels/assumptionlabels.h"
 #include "panels/backtestwords.h"
 
 #include "charts/backtestchart.h"
@@ -89,14 +90,7 @@ QTableWidget *makeTable(const QStringList &headers, QWidget *parent)
 
 QString BacktestView::modelTitle(RiskModel model)
 {
-    switch (model) {
-    case RiskModel::Normal: return tr("Normal");
-    case RiskModel::StudentT: return tr("Student-t");
-    case RiskModel::CornishFisher: return tr("Cornish–Fisher");
-    case RiskModel::Historical: return tr("Historical");
-    case RiskModel::MonteCarlo: return tr("Monte Carlo");
-    }
-    return {};
+    return modelLabel(model); // the one list of model names, assumptionlabels.h
 }
 
 BacktestView::BacktestView(Workbook &workbook, QWidget *parent) : QWidget(parent), m_workbook(workbook)
