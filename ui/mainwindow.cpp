@@ -10,6 +10,7 @@
 #include "export/reportexport.h"
 #include "panels/assumptionspane.h"
 #include "panels/cautionsnote.h"
+#include "text/cautions.h"
 #include "panels/charttabs.h"
 #include "panels/headlinepanel.h"
 #include "panels/holdingseditor.h"
@@ -416,7 +417,7 @@ void MainWindow::showAbout()
                        tr("<h3>Tailwise %1</h3><p>A workbench for Value-at-Risk and Expected Shortfall of portfolios "
                           "from daily price histories.</p>")
                                .arg(QApplication::applicationVersion())
-                           + CautionsNote::fullText());
+                           + cautionsFullText());
 }
 
 void MainWindow::addRecentFile(const QString &path)

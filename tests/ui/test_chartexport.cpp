@@ -10,7 +10,7 @@
 #include "export/captions.h"
 #include "export/chartrender.h"
 #include "export/workbookresults.h"
-#include "panels/localnumbers.h"
+#include "text/numbers.h"
 
 #include "tailwise/backtest.h"
 #include "tailwise/comparison.h"

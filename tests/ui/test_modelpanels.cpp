@@ -10,7 +10,7 @@
 #include "document/workbookfile.h"
 #include "models/modelcomparisonmodel.h"
 #include "panels/charttabs.h"
-#include "panels/localnumbers.h"
+#include "text/numbers.h"
 #include "panels/modelcomparisonview.h"
 #include "panels/stresspanel.h"
 #include "document/resultsstore.h"

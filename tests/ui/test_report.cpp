@@ -14,7 +14,7 @@
 #include "export/reportexport.h"
 #include "export/reportpdf.h"
 #include "export/reportsections.h"
-#include "panels/localnumbers.h"
+#include "text/numbers.h"
 
 #include "tailwise/backtest.h"
 #include "tailwise/comparison.h"

@@ -10,7 +10,7 @@
 #include "models/holdingsmodel.h"
 #include "panels/charttabs.h"
 #include "panels/holdingspaste.h"
-#include "panels/localnumbers.h"
+#include "text/numbers.h"
 
 #include "tailwise/risk.h"
 

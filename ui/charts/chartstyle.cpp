@@ -1,5 +1,7 @@
 #include "charts/chartstyle.h"
 
+#include "text/numbers.h"
+
 #include <qcustomplot.h>
 
 #include <QCoreApplication>
@@ -93,32 +95,22 @@ QString moneyUnit(const QString &currency)
 
 QString money(double value, int decimals)
 {
-    if (!std::isfinite(value))
-        return QStringLiteral("n/a");
-    if (decimals == 0 && std::abs(value) < 0.5)
-        value = 0.0; // never print "-0"
-    return QLocale().toString(value, 'f', decimals);
+    return moneyText(value, decimals);
 }
 
 QString signedMoney(double value, int decimals)
 {
-    const QString text = money(value, decimals);
-    return value > 0.0 && std::isfinite(value) ? QLocale().positiveSign() + text : text;
+    return signedMoneyText(value, decimals);
 }
 
 QString percent(double fraction, int decimals)
 {
-    if (!std::isfinite(fraction))
-        return QStringLiteral("n/a");
-    return QLocale().toString(fraction * 100.0, 'f', decimals) + QLocale().percent();
+    return percentText(fraction, decimals);
 }
 
 QString confidenceText(double confidence)
 {
-    if (!std::isfinite(confidence))
-        return QStringLiteral("n/a");
-    // 'g' with enough digits drops trailing zeros: 99.9, 97.5, 95.
-    return QLocale().toString(confidence * 100.0, 'g', 6) + QLocale().percent();
+    return tailwise::ui::confidenceText(confidence);
 }
 
 double niceStep(double span, int target)

@@ -32,7 +32,8 @@ QFont noteFont();
 void styleAxis(QCPAxis *axis);
 void stylePlot(QCustomPlot *plot);
 
-// Locale-aware text: thousands separators, the user's decimal mark.
+// The charts' number text: text/numbers.h's rules (one rule each for money, percent and
+// confidence, a dash for no figure), with the charts' default decimals.
 QString money(double value, int decimals = 0);
 QString signedMoney(double value, int decimals = 0);
 QString percent(double fraction, int decimals = 1);

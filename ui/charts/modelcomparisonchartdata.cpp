@@ -1,7 +1,7 @@
 #include "charts/modelcomparisonchartdata.h"
 
 #include "charts/chartstyle.h"
-#include "models/modelcomparisonmodel.h"
+#include "text/assumptionlabels.h"
 
 #include <QCoreApplication>
 #include <QLocale>
@@ -27,9 +27,9 @@ ModelComparisonChartData buildModelComparisonChartData(const std::vector<ModelRo
     for (const ModelRow &r : rows) {
         ModelComparisonGroup g;
         g.asked = r.model;
-        g.model = r.used != r.model ? tr("%1 (as %2)").arg(ModelComparisonModel::modelName(r.model),
-                                                            ModelComparisonModel::modelName(r.used))
-                                    : ModelComparisonModel::modelName(r.model);
+        g.model = r.used != r.model ? tr("%1 (as %2)").arg(modelLabel(r.model),
+                                                            modelLabel(r.used))
+                                    : modelLabel(r.model);
         g.current = r.model == assumptions.model;
         if (r.figures && std::isfinite(r.figures->var) && std::isfinite(r.figures->es)) {
             g.hasFigures = true;

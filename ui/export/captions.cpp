@@ -1,8 +1,8 @@
 #include "export/captions.h"
 
 #include "charts/chartstyle.h"
-#include "panels/headlinepanel.h"
-#include "panels/localnumbers.h"
+#include "text/headline.h"
+#include "text/numbers.h"
 
 #include <QCoreApplication>
 #include <QLocale>
@@ -59,7 +59,7 @@ QString tradeoffCaption(const WorkbookResults &w)
     }
     if (r.assumptions.model != RiskModel::Normal)
         text += QLatin1Char(' ') + tr("The grid uses the normal model throughout; the headline figure follows the %1 model.")
-                                       .arg(HeadlinePanel::modelName(r));
+                                       .arg(headlineModelName(r));
     return text + QLatin1Char(' ') + tr("From %1.").arg(dataBehindText(r)) + QLatin1Char(' ') + cautionText();
 }
 
@@ -152,7 +152,7 @@ QString dataBehindText(const RiskReport &r)
                                   ? tr(", recent days weighted more (λ %1)").arg(QLocale().toString(r.assumptions.lambda, 'f', 3))
                                   : QString();
     return tr("the %1 model fitted to the %2 daily returns from %3 to %4%5")
-        .arg(HeadlinePanel::modelName(r), QLocale().toString(r.windowReturns), dateText(r.windowFirst),
+        .arg(headlineModelName(r), QLocale().toString(r.windowReturns), dateText(r.windowFirst),
              dateText(r.windowLast), weighting);
 }
 

@@ -5,7 +5,7 @@
 // The user edits the caption before export; this is only its first draft.
 #pragma once
 
-#include "export/chartkind.h"
+#include "charts/chartkind.h"
 #include "export/workbookresults.h"
 
 #include <QString>

@@ -17,7 +17,7 @@
 // offscreen one (app/cli/guiapplication.h).
 #pragma once
 
-#include "export/chartkind.h"
+#include "charts/chartkind.h"
 #include "export/workbookresults.h"
 
 #include "tailwise/result.h"

@@ -1,11 +1,11 @@
 #include "reportsections.h"
 
 #include "charts/chartstyle.h"
-#include "panels/assumptionlabels.h"
-#include "panels/backtestwords.h"
-#include "panels/cautionsnote.h"
-#include "panels/headlinepanel.h"
-#include "panels/localnumbers.h"
+#include "text/assumptionlabels.h"
+#include "text/backtestwords.h"
+#include "text/cautions.h"
+#include "text/headline.h"
+#include "text/numbers.h"
 
 #include "tailwise/grid.h"
 
@@ -125,7 +125,7 @@ void addHeadline(Document &doc, const RiskReport &r)
                              tr("%n holdings", static_cast<int>(r.holdings.size())) + QLatin1Char('\n')
                                  + tr("net market value")});
     doc.add(figures);
-    doc.add(TextStyle::Body, HeadlinePanel::sentence(r));
+    doc.add(TextStyle::Body, headlineSentence(r));
     doc.add(TextStyle::Body, tr("Model: %1. %2").arg(modelDetail(r), modelDescription(r.model.used)));
     if (r.model.varStandardError && std::isfinite(*r.model.varStandardError))
         doc.add(TextStyle::Body, tr("The simulation's standard error is %1 on VaR and %2 on ES: a second run with "
@@ -425,7 +425,7 @@ void addAssumptions(Document &doc, const WorkbookContents &w, const RiskReport *
 void addCautions(Document &doc, bool withBacktest)
 {
     doc.add(TextStyle::Heading, tr("Cautions"));
-    for (const CautionsNote::Caution &c : CautionsNote::cautions()) {
+    for (const Caution &c : cautions()) {
         doc.add(TextStyle::Subheading, c.title);
         doc.add(TextStyle::Body, c.text);
     }

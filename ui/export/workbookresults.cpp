@@ -1,7 +1,7 @@
 #include "export/workbookresults.h"
 
 #include "document/backtestrequest.h"
-#include "models/modelcomparisonmodel.h"
+#include "text/assumptionlabels.h"
 
 #include <QCoreApplication>
 
@@ -27,7 +27,7 @@ void buildChartData(WorkbookResults &r)
     r.contributions = buildContributionsChartData(r.report, contributions);
     r.backtestChart.reset();
     if (r.backtest)
-        r.backtestChart = buildBacktestChartData(*r.backtest, ModelComparisonModel::modelName(r.backtest->assumptions.model),
+        r.backtestChart = buildBacktestChartData(*r.backtest, modelLabel(r.backtest->assumptions.model),
                                                  r.currency);
     r.modelsChart.reset();
     if (r.models)
@@ -38,7 +38,7 @@ void buildChartData(WorkbookResults &r)
 
 QString riskModelTitle(RiskModel model)
 {
-    return ModelComparisonModel::modelName(model);
+    return modelLabel(model);
 }
 
 WorkbookResults assembleWorkbookResults(const QString &title, const RiskReport &report, const BacktestSettings &settings,

@@ -3,7 +3,7 @@
 #include "document/commands.h"
 #include "document/resultsstore.h"
 #include "document/workbook.h"
-#include "panels/localnumbers.h"
+#include "text/numbers.h"
 
 #include "tailwise/holdings.h"
 

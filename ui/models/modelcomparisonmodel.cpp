@@ -1,7 +1,7 @@
 #include "modelcomparisonmodel.h"
 
-#include "panels/assumptionlabels.h"
-#include "panels/localnumbers.h"
+#include "text/assumptionlabels.h"
+#include "text/numbers.h"
 
 #include <QBrush>
 #include <QColor>

@@ -1,9 +1,9 @@
 #include "assumptionspane.h"
 
-#include "assumptionlabels.h"
+#include "text/assumptionlabels.h"
 #include "document/resultsstore.h"
 #include "document/workbook.h"
-#include "localnumbers.h"
+#include "text/numbers.h"
 #include "modelsettings.h"
 #include "workbookdetails.h"
 
@@ -267,7 +267,7 @@ void AssumptionsPane::setConfidence(double confidence, edit::MergeKey key)
     if (std::abs(a.confidence - confidence) < 1e-12)
         return;
     a.confidence = confidence;
-    commit(a, tr("Set confidence to %1%").arg(QLocale().toString(confidence * 100.0, 'g', 4)), key);
+    commit(a, tr("Set confidence to %1").arg(confidenceText(confidence)), key);
 }
 
 void AssumptionsPane::setHorizon(int days)

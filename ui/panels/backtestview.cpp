@@ -1,7 +1,7 @@
 #include "panels/backtestview.h"
 
-#include "panels/assumptionlabels.h"
-#include "panels/backtestwords.h"
+#include "text/assumptionlabels.h"
+#include "text/backtestwords.h"
 
 #include "charts/backtestchart.h"
 #include "charts/chartstyle.h"

@@ -6,7 +6,7 @@
 #include "document/commands.h"
 #include "document/resultsstore.h"
 #include "document/workbook.h"
-#include "localnumbers.h"
+#include "text/numbers.h"
 #include "backtestview.h"
 #include "modelcomparisonview.h"
 #include "stresspanel.h"
@@ -115,7 +115,7 @@ ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_w
         a.horizonDays = horizonDays;
         a.confidence = confidence;
         edit::setAssumptions(m_workbook, a,
-                             tr("Pick %1 at %2% on the map").arg(tradingDaysText(horizonDays), QLocale().toString(confidence * 100.0, 'g', 4)));
+                             tr("Pick %1 at %2 on the map").arg(tradingDaysText(horizonDays), confidenceText(confidence)));
     });
     refresh();
 }

@@ -4,7 +4,7 @@
 // panels that go beyond one model's figures: every model side by side, trying a trade, and stress.
 #pragma once
 
-#include "export/chartkind.h"
+#include "charts/chartkind.h"
 
 #include "tailwise/risk.h"
 

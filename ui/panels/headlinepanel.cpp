@@ -2,7 +2,8 @@
 
 #include "document/resultsstore.h"
 #include "document/workbook.h"
-#include "localnumbers.h"
+#include "text/headline.h"
+#include "text/numbers.h"
 
 #include "tailwise/risk.h"
 
@@ -106,36 +107,6 @@ HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(pare
     refresh();
 }
 
-QString HeadlinePanel::modelName(const RiskReport &report)
-{
-    // By the model's file name, so the text follows the core as models are added.
-    const std::string_view name = toName(report.assumptions.model);
-    if (name == "normal") return tr("normal");
-    if (name == "student-t") return tr("Student-t");
-    if (name == "cornish-fisher") return tr("Cornish–Fisher");
-    if (name == "historical") return tr("historical-simulation");
-    if (name == "monte-carlo") return tr("Monte Carlo");
-    return QString::fromUtf8(name.data(), static_cast<qsizetype>(name.size()));
-}
-
-QString HeadlinePanel::sentence(const RiskReport &r)
-{
-    const QLocale locale;
-    const QString confidence = locale.toString(r.assumptions.confidence * 100.0, 'g', 4) + locale.percent();
-    const QString tail = locale.toString((1.0 - r.assumptions.confidence) * 100.0, 'g', 3) + locale.percent();
-    const QString weighting = r.assumptions.estimator == CovarianceEstimator::Ewma
-                                  ? tr(", recent days weighted more (λ %1)").arg(locale.toString(r.assumptions.lambda, 'f', 3))
-                                  : QString();
-    QString share = r.varFraction ? tr(" (%1 of the portfolio's value)").arg(percentText(r.varFraction)) : QString();
-    return tr("Over %1, with %2 confidence, the loss should not exceed %3%4 — "
-              "by the %5 model estimated from the %6 daily returns from %7 to %8%9. "
-              "In the worst %10 of cases the loss averages %11 (Expected Shortfall).")
-        .arg(tradingDaysText(r.assumptions.horizonDays), confidence, moneyText(r.figures.var), share, modelName(r),
-             locale.toString(r.windowReturns), dateText(r.windowFirst), dateText(r.windowLast), weighting)
-        .arg(tail)
-        .arg(moneyText(r.figures.es));
-}
-
 void HeadlinePanel::refresh()
 {
     m_title->setText(m_workbook.title());
@@ -161,7 +132,7 @@ void HeadlinePanel::refresh()
         m_sentence->setText(stopped ? tr("Stopped: these figures are of the earlier inputs; change an input to compute "
                                          "them again.")
                                     : store.isRunning(Part::Headline) ? tr("Working out the figures for the new inputs…")
-                                                                      : sentence(*report));
+                                                                      : headlineSentence(*report));
         QStringList notes;
         for (const auto &w : report->warnings)
             notes << QString::fromStdString(w);

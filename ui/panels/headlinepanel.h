@@ -20,9 +20,6 @@ class HeadlinePanel : public QWidget {
 public:
     explicit HeadlinePanel(Workbook &workbook, QWidget *parent = nullptr);
 
-    // The sentence for a report, e.g. "Over 10 trading days, with 99 % confidence, …".
-    static QString sentence(const tailwise::RiskReport &report);
-    static QString modelName(const tailwise::RiskReport &report);
 
 private:
     void refresh();

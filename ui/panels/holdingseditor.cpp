@@ -4,7 +4,7 @@
 #include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "holdingspaste.h"
-#include "localnumbers.h"
+#include "text/numbers.h"
 #include "models/holdingsmodel.h"
 
 #include "tailwise/holdings.h"

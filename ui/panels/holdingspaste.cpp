@@ -1,6 +1,6 @@
 #include "holdingspaste.h"
 
-#include "localnumbers.h"
+#include "text/numbers.h"
 
 #include <QCoreApplication>
 #include <QStringList>

@@ -2,7 +2,7 @@
 
 #include "document/resultsstore.h"
 #include "document/workbook.h"
-#include "localnumbers.h"
+#include "text/numbers.h"
 #include "models/modelcomparisonmodel.h"
 
 #include "tailwise/comparison.h"

@@ -3,7 +3,7 @@
 #include "document/commands.h"
 #include "document/resultsstore.h"
 #include "document/workbook.h"
-#include "localnumbers.h"
+#include "text/numbers.h"
 
 #include "tailwise/assumptions.h"
 

@@ -5,7 +5,7 @@
 #include "document/commands.h"
 #include "document/resultsstore.h"
 #include "document/workbook.h"
-#include "localnumbers.h"
+#include "text/numbers.h"
 
 #include <QComboBox>
 #include <QDoubleSpinBox>

@@ -1,4 +1,4 @@
-#include "export/chartkind.h"
+#include "charts/chartkind.h"
 
 #include <QCoreApplication>
 

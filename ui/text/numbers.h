@@ -1,6 +1,7 @@
-// Numbers and dates as the window shows them: in the user's locale (thousands separators, decimal
-// mark, date order). Files stay locale-independent; these functions are for the screen only.
-// A value that is not finite never reaches the screen: it is shown as a dash.
+// Numbers and dates as the window, its charts, captions and the PDF report show them: in the
+// user's locale (thousands separators, decimal mark, date order), one rule per kind of figure.
+// Files and the JSON stay locale-independent; these functions are for people only. A value that
+// is not finite (or absent) never reaches a screen or a page: it is shown as a dash ("no figure").
 #pragma once
 
 #include "tailwise/date.h"
@@ -11,9 +12,14 @@
 
 namespace tailwise::ui {
 
-// 1234567.891 → "1,234,567.89" (en_GB) or "1.234.567,89" (de_DE).
+// 1234567.891 → "1,234,567.89" (en_GB) or "1.234.567,89" (de_DE); never "-0".
 QString moneyText(double value, int decimals = 2);
-// 0.02345 → "2.35 %" in the locale's form; nullopt or non-finite → dash.
+// The same with a plus sign on gains: "+1,234".
+QString signedMoneyText(double value, int decimals = 0);
+// A confidence level or a tail probability as a percentage without trailing zeros:
+// 0.99 → "99%", 0.975 → "97.5%", 0.01 → "1%".
+QString confidenceText(double level);
+// 0.02345 → "2.35%" in the locale's form; nullopt or non-finite → dash.
 QString percentText(std::optional<double> fraction, int decimals = 2);
 // A quantity: as many decimals as it needs, up to 6.
 QString quantityText(double value);

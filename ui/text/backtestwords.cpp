@@ -1,6 +1,6 @@
-#include "backtestwords.h"
+#include "text/backtestwords.h"
 
-#include "charts/chartstyle.h"
+#include "text/numbers.h"
 
 #include <QCoreApplication>
 #include <QLocale>
@@ -27,7 +27,7 @@ QString pValueText(double p)
 // A test size as a percentage without trailing zeros (0.05 → "5 %").
 QString sizeText(double testSize)
 {
-    return QLocale().toString(testSize * 100.0, 'g', 4) + QStringLiteral("%");
+    return confidenceText(testSize); // the same rule as every probability level
 }
 
 QString zoneName(Zone zone)
@@ -54,7 +54,7 @@ QString kupiecWords(const BacktestResult &r, const BacktestVerdict &v)
 {
     if (!v.kupiecRejected)
         return tr("not rejected: the number of exceptions fits %1 VaR")
-            .arg(chartstyle::confidenceText(r.assumptions.confidence));
+            .arg(confidenceText(r.assumptions.confidence));
     return v.tooManyExceptions ? tr("rejected: too many exceptions, the model understates the risk")
                                : tr("rejected: too few exceptions, the model overstates the risk");
 }

@@ -1,4 +1,4 @@
-#include "assumptionlabels.h"
+#include "text/assumptionlabels.h"
 
 #include <QCoreApplication>
 

@@ -1,4 +1,4 @@
-#include "localnumbers.h"
+#include "text/numbers.h"
 
 #include <QCoreApplication>
 #include <QDate>
@@ -16,9 +16,25 @@ QString moneyText(double value, int decimals)
 {
     if (!std::isfinite(value))
         return dash;
-    if (value == 0.0)
-        value = 0.0; // no "-0.00"
+    if (std::abs(value) < 0.5 * std::pow(10.0, -decimals))
+        value = 0.0; // what rounds to zero is written "0", never "-0"
     return QLocale().toString(value, 'f', decimals);
+}
+
+QString signedMoneyText(double value, int decimals)
+{
+    const QString text = moneyText(value, decimals);
+    return std::isfinite(value) && std::abs(value) >= 0.5 * std::pow(10.0, -decimals) && value > 0.0
+               ? QLocale().positiveSign() + text
+               : text;
+}
+
+QString confidenceText(double level)
+{
+    if (!std::isfinite(level))
+        return dash;
+    // 'g' with enough digits drops trailing zeros (99.9, 97.5, 95) and the float noise of 1 − 0.99.
+    return QLocale().toString(level * 100.0, 'g', 6) + QLocale().percent();
 }
 
 QString percentText(std::optional<double> fraction, int decimals)
