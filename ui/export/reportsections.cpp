@@ -5,6 +5,7 @@
 #include "text/backtestwords.h"
 #include "text/cautions.h"
 #include "text/headline.h"
+#include "text/version.h"
 #include "text/numbers.h"
 
 #include "tailwise/grid.h"
@@ -15,10 +16,6 @@
 #include <algorithm>
 #include <cmath>
 #include <set>
-
-namespace tailwise::ui {
-const char *versionText();
-}
 
 namespace tailwise::ui::report {
 

@@ -1,4 +1,8 @@
 // The version string shown in the window's About box and the report footer.
+#pragma once
+
 namespace tailwise::ui {
-const char *versionText() { return "0.1.0"; }
+
+const char *versionText();
+
 } // namespace tailwise::ui
