@@ -3,6 +3,7 @@
 #include "csvtext.h"
 
 #include "tailwise/returns.h"
+#include "tailwise/textlimits.h"
 
 #include <algorithm>
 #include <numeric>
@@ -92,6 +93,9 @@ Result<StressScenario> parseScenarioCsv(std::string_view text, const std::string
         std::string asset(cells[static_cast<std::size_t>(assetCol)].value());
         if (asset.empty())
             return fileError(ErrorKind::Format, source, lineNo, assetCol + 1, "expected an asset name, found an empty cell");
+        if (const auto problem = checkText(asset, maxNameChars))
+            return fileError(ErrorKind::Format, source, lineNo, assetCol + 1,
+                             describeTextProblem(*problem, "the asset name", maxNameChars));
         if (prices && prices->assetIndex(asset) < 0)
             return fileError(ErrorKind::Reference, source, lineNo, assetCol + 1,
                              "the price history has no asset named \"" + asset + "\"");
