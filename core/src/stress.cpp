@@ -39,6 +39,9 @@ Result<StressScenario> parseScenarioCsv(std::string_view text, const std::string
 {
     constexpr std::size_t maxLine = 64 * 1024;
     constexpr std::size_t maxRows = 100000;
+    // The name (from the file's name) goes to JSON, the window and paper: the same text rules.
+    if (const auto problem = checkText(name, maxNameChars))
+        return fileError(ErrorKind::Format, source, 0, 0, describeTextProblem(*problem, "the scenario's name (its file name)", maxNameChars));
     csv::LineReader lines(text);
     std::string_view line;
     bool haveHeader = false;
