@@ -20,6 +20,8 @@
 #include <cstring>
 #include <exception>
 #include <new>
+
+#include <unistd.h>
 #include <cstdio>
 #include <optional>
 #include <string>
@@ -155,6 +157,10 @@ int runCommand(const std::vector<std::string> &args)
 int main(int argc, char **argv)
 {
     const std::vector<std::string> args(argv + 1, argv + argc);
+    // Redirected output is written at the end in one flush, so that a failure (a full disk) is
+    // seen there with its reason.
+    if (!::isatty(STDOUT_FILENO))
+        std::setvbuf(stdout, nullptr, _IOFBF, 1 << 22);
     int code = exitOk;
     // Whatever a library throws (a special function outside its domain, memory running out) ends
     // as a message and exit 2, never as an abort.
