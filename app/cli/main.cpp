@@ -15,7 +15,13 @@
 #include "tailwise/prices.h"
 #include "tailwise/risk.h"
 
+#include <cerrno>
 #include <chrono>
+#include <cstring>
+#include <exception>
+#include <new>
+
+#include <unistd.h>
 #include <cstdio>
 #include <optional>
 #include <string>
@@ -119,9 +125,10 @@ int runVar(const std::vector<std::string> &args)
 
 } // namespace
 
-int main(int argc, char **argv)
+namespace {
+
+int runCommand(const std::vector<std::string> &args)
 {
-    const std::vector<std::string> args(argv + 1, argv + argc);
     if (args.empty())
         return fail(exitUsage, std::string("expected a command\n\n") + topHelp);
     if (args[0] == "--help" || args[0] == "-h" || args[0] == "help") {
@@ -143,4 +150,39 @@ int main(int argc, char **argv)
     if (args[0] == "report")
         return tailwise::cli::runPdfReportCommand({args.begin() + 1, args.end()});
     return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest, pack, render, report)");
+}
+
+} // namespace
+
+int main(int argc, char **argv)
+{
+    const std::vector<std::string> args(argv + 1, argv + argc);
+    // Redirected output is written at the end in one flush, so that a failure (a full disk) is
+    // seen there with its reason.
+    if (!::isatty(STDOUT_FILENO))
+        std::setvbuf(stdout, nullptr, _IOFBF, 1 << 22);
+    int code = exitOk;
+    // Whatever a library throws (a special function outside its domain, memory running out) ends
+    // as a message and exit 2, never as an abort.
+    try {
+        code = runCommand(args);
+    } catch (const std::bad_alloc &) {
+        std::fflush(stdout);
+        return fail(exitBadInput, "not enough memory for this computation (the input may be too large)");
+    } catch (const std::exception &e) {
+        std::fflush(stdout);
+        return fail(exitUsage, std::string("could not compute this: ") + e.what());
+    } catch (...) {
+        std::fflush(stdout);
+        return fail(exitUsage, "could not compute this: an unexpected failure");
+    }
+    // Output written to standard output must have arrived (a full disk behind `> file`, a closed
+    // pipe): otherwise a non-zero exit with the system's reason.
+    errno = 0;
+    if (std::fflush(stdout) != 0 || std::ferror(stdout)) {
+        const int error = errno;
+        return fail(code == exitOk ? exitBadInput : code,
+                    std::string("could not write the output: ") + (error != 0 ? std::strerror(error) : "write failed"));
+    }
+    return code;
 }

@@ -161,10 +161,10 @@ void declareAssumptionOptions(CommandLine &line, AssumptionOptions &o, Command c
         line.value("--window", o.window, "W",
                    "daily returns behind each forecast, 2 <= W < returns in the history\n(with --workbook: its backtest settings' window unless given)");
         line.value("--confidence", o.confidence, "C",
-                   "VaR confidence, 0 < C < 1 (default 0.99); expected exception rate 1 - C");
+                   "VaR confidence, 0.5 <= C <= 0.9999 (default 0.99); expected exception\nrate 1 - C");
     } else {
         line.value("--confidence", o.confidence, "C",
-                   "probability that the loss stays below VaR, 0 < C < 1 (default 0.99)");
+                   "probability that the loss stays below VaR, 0.5 <= C <= 0.9999\n(default 0.99)");
         line.value("--horizon", o.horizon, "H",
                    "horizon in whole trading days, >= 1 (default 1); risk grows with the\nsquare root of H, the mean with H");
         line.value("--days-per-year", o.daysPerYear, "N",
@@ -184,7 +184,7 @@ void declareAssumptionOptions(CommandLine &line, AssumptionOptions &o, Command c
 Status applyAssumptionOptions(const AssumptionOptions &o, Assumptions &a)
 {
     if (o.confidence) {
-        auto v = number("--confidence", *o.confidence, "a confidence level between 0 and 1 (e.g. 0.99)");
+        auto v = number("--confidence", *o.confidence, "a confidence level from 0.5 to 0.9999 (e.g. 0.99)");
         if (!v)
             return v.error();
         a.confidence = v.value();

@@ -10,6 +10,8 @@
 #include "document/workbookfile.h"
 
 #include "tailwise/backtest.h"
+#include "tailwise/filewrite.h"
+#include "tailwise/textlimits.h"
 #include "tailwise/holdings.h"
 #include "tailwise/prices.h"
 #include "tailwise/stress.h"
@@ -111,8 +113,9 @@ void declare(CommandLine &line, PackOptions &o)
                "the models, comma-separated, the first one drawn and the others\ncompared with it (default normal)");
     declareOutputOptions(line, o.output, Command::Pack);
     line.value("--out", o.out, "FILE",
-               "the workbook to write (JSON, extension .tailwise); written atomically,\n"
-               "an existing file is replaced only when the new one is complete");
+               "the workbook to write (JSON, extension .tailwise), or - for standard\n"
+               "output; written atomically: an existing regular file is replaced only\n"
+               "when the new one is complete, never one of the inputs");
 }
 
 } // namespace
@@ -168,6 +171,14 @@ int runPackCommand(const std::vector<std::string> &args)
     if (o.out.empty())
         return fail(exitUsage, "--out: expected the workbook file to write (e.g. --out fund.tailwise)");
     const std::vector<std::string> &scenarioPaths = o.kept.scenarios;
+    {
+        std::vector<std::string> inputs{o.inputs.prices, o.inputs.holdings};
+        inputs.insert(inputs.end(), scenarioPaths.begin(), scenarioPaths.end());
+        if (auto ok = checkOutputIsNotAnInput(o.out, inputs); !ok)
+            return fail(exitUsage, ok.error().message);
+    }
+    if (const auto problem = checkText(o.title, maxTitleChars))
+        return fail(exitUsage, "--title: " + describeTextProblem(*problem, "the title", maxTitleChars));
     const std::string title = o.title;
     const std::string out = o.out;
     struct {
@@ -204,6 +215,16 @@ int runPackCommand(const std::vector<std::string> &args)
     contents.assumptions = req.assumptions;
     contents.backtest = backtest;
     contents.scenarios = std::move(scenarios);
+    if (out == "-") { // --out -: the workbook to standard output, the summary to the error stream
+        const auto json = ui::workbookJson(contents);
+        if (!json)
+            return fail(exitBadInput, json.error().message);
+        if (auto written = writeStandardOutput(std::string_view(json.value().constData(), json.value().size())); !written)
+            return fail(exitBadInput, written.error().message);
+        std::fprintf(stderr, "tailwise-cli: wrote the workbook to standard output: %d assets, %d days, %zu holdings\n",
+                     contents.prices.assetCount(), contents.prices.dayCount(), contents.holdings.size());
+        return exitOk;
+    }
     const auto saved = ui::saveWorkbook(contents, QFile::decodeName(out.c_str()));
     if (!saved)
         return fail(exitBadInput, saved.error().message);

@@ -9,6 +9,9 @@
 
 #include "export/reportexport.h"
 
+#include "tailwise/filewrite.h"
+
+#include <QBuffer>
 #include <QByteArray>
 #include <QDir>
 #include <QFile>
@@ -47,7 +50,8 @@ void declare(CommandLine &line, PdfReportOptions &o)
 {
     line.positional("WORKBOOK", o.workbook);
     line.section("Options");
-    line.value("--out,-o", o.out, "FILE.pdf", "the PDF to write (replaced only once it is complete)");
+    line.value("--out,-o", o.out, "FILE.pdf",
+               "the PDF to write (replaced only once it is complete; never the\nworkbook itself), or - for standard output");
     line.flag("--help", o.help, "this text");
 }
 
@@ -89,6 +93,8 @@ int runPdfReportCommand(const std::vector<std::string> &args)
         std::fputs(pdfReportHelpText().c_str(), stdout);
         return exitOk;
     }
+    if (auto ok = checkOutputIsNotAnInput(o.out, {o.workbook}); !ok)
+        return fail(exitUsage, ok.error().message);
     auto contents = readWorkbookInput(o.workbook);
     if (!contents)
         return fail(exitBadInput, contents.error().message);
@@ -96,12 +102,22 @@ int runPdfReportCommand(const std::vector<std::string> &args)
     if (!data.results)
         return fail(exitBadInput, o.workbook + ": no figures for this workbook's inputs: " + data.results.error().message);
     const auto app = makeGuiApplication();
-    const QString out = QFile::decodeName(o.out.c_str());
-    const auto written = ui::writeReport(data, QFileInfo(QFile::decodeName(o.workbook.c_str())).fileName(), out);
-    if (!written)
-        return fail(exitBadInput, written.error().message);
-    std::fprintf(stdout, "Wrote %s (%d pages).\n", QDir::toNativeSeparators(out).toLocal8Bit().constData(),
-                 written.value());
+    const QString workbookName = QFileInfo(QFile::decodeName(o.workbook.c_str())).fileName();
+    if (o.out == "-") { // --out -: the PDF to standard output, the summary to the error stream
+        QBuffer buffer;
+        buffer.open(QIODevice::WriteOnly);
+        const int pages = ui::writeReport(data, workbookName, buffer);
+        if (auto written = writeStandardOutput(std::string_view(buffer.data().constData(), buffer.data().size())); !written)
+            return fail(exitBadInput, written.error().message);
+        std::fprintf(stderr, "Wrote the report to standard output (%d pages).\n", pages);
+    } else {
+        const QString out = QFile::decodeName(o.out.c_str());
+        const auto written = ui::writeReport(data, workbookName, out);
+        if (!written)
+            return fail(exitBadInput, written.error().message);
+        std::fprintf(stdout, "Wrote %s (%d pages).\n", QDir::toNativeSeparators(out).toLocal8Bit().constData(),
+                     written.value());
+    }
     for (const auto &w : data.results.value().report.warnings)
         std::fprintf(stderr, "tailwise-cli: warning: %s\n", w.c_str());
     return exitOk;

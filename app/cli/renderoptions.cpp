@@ -53,7 +53,9 @@ void declare(CommandLine &line, Texts &t)
                "contributions  each holding's part of VaR, and diversification\n"
                "backtest       past days' P&L against their one-day VaR\n"
                "models         VaR and ES under every model");
-    line.value("--out", t.out, "FILE", "the file to write; its suffix (.png, .svg, .pdf) chooses the format");
+    line.value("--out", t.out, "FILE",
+               "the file to write; its suffix (.png, .svg, .pdf) chooses the format;\n"
+               "- for standard output (with --format); never the workbook itself");
     line.value("--format", t.format, "F", "png, svg or pdf, whatever the suffix");
     line.value("--preset", t.preset, "P",
                "column (85 x 75 mm), half-page (170 x 110, the default),\nfull-page (170 x 230), slide (254 x 143, 16:9)");
@@ -138,6 +140,8 @@ Result<RenderOptions> parseRenderOptions(const std::vector<std::string> &args)
         return usage("--chart", "expected one of " + joined(ui::chartKindNames()));
     if (options.outPath.empty())
         return usage("--out", "expected the file to write (FILE.png, FILE.svg or FILE.pdf)");
+    if (!format && options.outPath == "-")
+        return usage("--format", "expected png, svg or pdf with --out - (standard output has no suffix to tell it)");
     if (!format)
         format = ui::exportFormatForPath(QString::fromStdString(options.outPath));
     if (!format)

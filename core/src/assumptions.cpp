@@ -5,6 +5,13 @@
 namespace tailwise {
 
 namespace {
+// The confidence levels accepted everywhere (options, workbooks, the window): 0.5 ≤ C ≤ 0.9999.
+// Below one half a "VaR" is a gain quantile, and beyond 0.9999 the tail quantiles rest on fewer
+// observations than any window holds and the special functions lose their accuracy (common
+// practice: regulatory VaR uses 0.95–0.999).
+constexpr double minConfidence = 0.5;
+constexpr double maxConfidence = 0.9999;
+
 std::string show(double v)
 {
     if (std::isnan(v))
@@ -19,9 +26,9 @@ std::string show(double v)
 
 Status validate(const Assumptions &a)
 {
-    if (!(a.confidence > 0.0 && a.confidence < 1.0))
+    if (!(a.confidence >= minConfidence && a.confidence <= maxConfidence))
         return fieldError(ErrorKind::Assumption, "confidence",
-                          "expected a level strictly between 0 and 1 (e.g. 0.99), found " + show(a.confidence));
+                          "expected a level from 0.5 to 0.9999 (e.g. 0.99), found " + show(a.confidence));
     if (a.horizonDays < 1)
         return fieldError(ErrorKind::Assumption, "horizon",
                           "expected a whole number of trading days of at least 1, found " + std::to_string(a.horizonDays));

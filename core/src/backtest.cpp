@@ -1,6 +1,7 @@
 #include "tailwise/backtest.h"
 
 #include "tailwise/cornishfisher.h"
+#include "tailwise/guard.h"
 #include "tailwise/historical.h"
 #include "tailwise/parametric.h"
 #include "tailwise/returns.h"
@@ -143,7 +144,16 @@ std::vector<Date> exceptionDates(const BacktestResult &result)
     return dates;
 }
 
+static Result<BacktestResult> runBacktestUnguarded(const BacktestRequest &request, std::stop_token stop,
+                                                   const ProgressCallback &progress);
+
 Result<BacktestResult> runBacktest(const BacktestRequest &request, std::stop_token stop, const ProgressCallback &progress)
+{
+    return catchLibraryErrors([&] { return runBacktestUnguarded(request, stop, progress); });
+}
+
+static Result<BacktestResult> runBacktestUnguarded(const BacktestRequest &request, std::stop_token stop,
+                                                   const ProgressCallback &progress)
 {
     const Assumptions &a = request.assumptions;
     const PriceHistory &prices = request.prices;

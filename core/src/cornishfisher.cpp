@@ -37,7 +37,12 @@ CornishFisherFactors cornishFisherFactors(double confidence, Shape s)
     auto integrand = [&](double z) { return cornishFisherZ(z, s) * boost::math::pdf(standard, z); };
     const double tail = boost::math::quadrature::gauss_kronrod<double, 61>::integrate(
         integrand, -std::numeric_limits<double>::infinity(), a, 15, 1e-12);
-    return CornishFisherFactors{-cornishFisherZ(a, s), -tail / alpha, cornishFisherMonotone(s)};
+    CornishFisherFactors f{-cornishFisherZ(a, s), -tail / alpha, cornishFisherMonotone(s)};
+    // Outside the monotone domain the tail average can fall below the quantile; ES is then given
+    // as VaR (the stated fallback, see the header), never below it.
+    if (!f.monotone && f.es < f.var)
+        f.es = f.var;
+    return f;
 }
 
 VarEs cornishFisherVarEs(HorizonMoments m, double confidence, Shape s)

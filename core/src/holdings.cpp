@@ -1,4 +1,5 @@
 #include "tailwise/holdings.h"
+#include "tailwise/textlimits.h"
 
 #include "csvtext.h"
 
@@ -89,6 +90,9 @@ Result<Holdings> parseHoldingsCsv(std::string_view text, const std::string &sour
         holding.asset = std::string(cells[static_cast<std::size_t>(assetCol)].value());
         if (holding.asset.empty())
             return fileError(ErrorKind::Format, source, lineNo, assetCol + 1, "expected an asset name, found an empty cell");
+        if (const auto problem = checkText(holding.asset, maxNameChars))
+            return fileError(ErrorKind::Format, source, lineNo, assetCol + 1,
+                             describeTextProblem(*problem, "the asset name", maxNameChars));
         auto number = [&](int col, const char *what) -> Result<double> {
             const auto text = cells[static_cast<std::size_t>(col)].value();
             const auto v = csv::parseNumber(text);

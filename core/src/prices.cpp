@@ -1,4 +1,6 @@
 #include "tailwise/prices.h"
+#include "tailwise/pricecheck.h"
+#include "tailwise/textlimits.h"
 
 #include "csvtext.h"
 
@@ -139,6 +141,12 @@ std::optional<Error> parseRow(const DataLine &line, std::size_t assets, const st
                                 "expected a price greater than zero, found " + std::string(cell));
             return false;
         }
+        if (!std::isnormal(*price)) {
+            failure = fileError(ErrorKind::Value, source, lineNo, column,
+                                "the price " + std::string(cell)
+                                    + " is too small to compute with (below 2.2e-308, a subnormal number)");
+            return false;
+        }
         prices[static_cast<std::size_t>(index - 1) * stride] = *price;
         return true;
     });
@@ -152,6 +160,30 @@ std::optional<Error> parseRow(const DataLine &line, std::size_t assets, const st
 }
 
 } // namespace
+
+std::optional<UnusablePrice> findUnusablePrice(const Eigen::MatrixXd &prices)
+{
+    std::optional<UnusablePrice> first;
+    for (Eigen::Index a = 0; a < prices.cols(); ++a) {
+        const double *column = prices.col(a).data();
+        const auto rows = static_cast<std::size_t>(prices.rows());
+        const std::size_t limit = first ? first->row : rows; // only an earlier row can come first
+        for (std::size_t r = 0; r < limit; ++r) {
+            const double p = column[r];
+            std::string why;
+            if (!std::isnormal(p) || p < 0.0)
+                why = "is too small to compute with (below 2.2e-308, a subnormal number)";
+            else if (r > 0 && !std::isnormal(p / column[r - 1]))
+                why = "differs from the previous day's price by a factor too large to compute a return with "
+                      "(the ratio overflows or underflows)";
+            if (!why.empty()) {
+                first = UnusablePrice{r, static_cast<std::size_t>(a), std::move(why)};
+                break;
+            }
+        }
+    }
+    return first;
+}
 
 Result<PriceHistory> parsePriceCsv(std::string_view text, const std::string &source)
 {
@@ -197,6 +229,9 @@ Result<PriceHistory> parsePriceCsv(std::string_view text, const std::string &sou
         if (name.empty())
             return fileError(ErrorKind::Format, source, headerLine, cells[c].column,
                              "expected an asset name, found an empty cell");
+        if (const auto problem = checkText(name, maxNameChars))
+            return fileError(ErrorKind::Format, source, headerLine, cells[c].column,
+                             describeTextProblem(*problem, "the asset name", maxNameChars));
         if (!seen.insert(name).second)
             return fileError(ErrorKind::Reference, source, headerLine, cells[c].column,
                              "the asset \"" + name + "\" appears twice in the header");
@@ -318,6 +353,13 @@ Result<PriceHistory> parsePriceCsv(std::string_view text, const std::string &sou
     if (firstFullRow > 0) {
         const Eigen::MatrixXd kept = history.prices.bottomRows(static_cast<Eigen::Index>(rows - firstFullRow));
         history.prices = kept;
+    }
+    // Prices every return can be formed from (a subnormal, or a ratio that overflows, would give a
+    // return of zero or infinity): checked on the kept rows, named by line and column.
+    if (const auto bad = findUnusablePrice(history.prices)) {
+        const auto column = static_cast<std::ptrdiff_t>(bad->asset) + 2;
+        return fileError(ErrorKind::Value, source, dataLines[bad->row + firstFullRow].lineNumber, static_cast<int>(column),
+                         "the price of \"" + history.assets[bad->asset] + "\" " + bad->why);
     }
     if (firstFullRow > 0) {
         history.dates.erase(history.dates.begin(), history.dates.begin() + static_cast<std::ptrdiff_t>(firstFullRow));

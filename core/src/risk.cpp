@@ -4,6 +4,7 @@
 
 #include "tailwise/cornishfisher.h"
 #include "tailwise/estimate.h"
+#include "tailwise/guard.h"
 #include "tailwise/historical.h"
 #include "tailwise/returns.h"
 #include "tailwise/simulate.h"
@@ -64,6 +65,33 @@ void fillFigures(RiskReport &report, const Eigen::VectorXd &exposures, const Eig
     }
 }
 
+// Figures the model gives but the user should not take at face value (common practice; each one a
+// case that gave a figure with no word of caution):
+//   - ν < 3: a Student-t scaled to the window's variance puts nearly all of it in rare extreme
+//     losses (its kurtosis is infinite for ν ≤ 4), so the VaR at usual confidences comes out small;
+//   - VaR or ES above the value of a book that only holds long positions: such a book cannot lose
+//     more than its value; the figure is the model's, stretched past its range (a long horizon);
+//   - a horizon longer than the returns in the window: the scaling to the horizon rests on more
+//     days than the data has seen.
+void addPlausibilityWarnings(RiskReport &report)
+{
+    const auto &a = report.assumptions;
+    if (report.model.dof && *report.model.dof < 3.0)
+        report.warnings.push_back("Student-t with " + std::to_string(*report.model.dof).substr(0, 6)
+                                  + " degrees of freedom (below 3): scaled to the window's variance, nearly all of the "
+                                    "spread sits in rare extreme losses, so VaR at this confidence is small and unreliable");
+    const bool longOnly = report.exposures.size() > 0 && (report.exposures.array() >= 0.0).all();
+    if (longOnly && report.portfolioValue > 0.0
+        && (report.figures.var > report.portfolioValue || report.figures.es > report.portfolioValue))
+        report.warnings.push_back(std::string(report.figures.var > report.portfolioValue ? "VaR" : "ES")
+                                  + " exceeds the portfolio's value, which a book of long positions only cannot lose: "
+                                    "the model is stretched beyond its range (e.g. by a long horizon)");
+    if (report.windowReturns > 0 && a.horizonDays > report.windowReturns)
+        report.warnings.push_back("the horizon of " + std::to_string(a.horizonDays) + " days is longer than the "
+                                  + std::to_string(report.windowReturns)
+                                  + " daily returns in the window: the figures extrapolate beyond the data");
+}
+
 // Fractions and the sign warning, from whichever model gave the figures.
 void finishFigures(RiskReport &report)
 {
@@ -74,6 +102,7 @@ void finishFigures(RiskReport &report)
     if (report.figures.var <= 0.0)
         report.warnings.push_back("the expected gain over the horizon exceeds the loss quantile: VaR is zero or negative "
                                   "(no loss is expected at this confidence)");
+    addPlausibilityWarnings(report);
 }
 
 void appendWarnings(RiskReport &report, const Warnings &more)
@@ -247,6 +276,16 @@ Result<const EstimateEntry *> heldEstimate(const PriceHistory &prices, const Hol
         return window.error();
     // Only the held assets enter the estimate, in holdings order.
     const Eigen::Index n = static_cast<Eigen::Index>(holdings.size());
+    // A covariance over more holdings than a gigabyte holds (N² doubles), from fewer returns than
+    // holdings (singular, so no figure could rest on it): refused before any N × N work.
+    constexpr Eigen::Index maxSingularCovariance = 11585; // 11585² × 8 bytes ≈ 1 GiB
+    const Eigen::Index returnsInWindow = window.value().returns.rows();
+    if (n > maxSingularCovariance && returnsInWindow <= n)
+        return fieldError(ErrorKind::InsufficientData, "holdings",
+                          std::to_string(n) + " holdings with only " + std::to_string(returnsInWindow)
+                              + " daily returns in the window: their covariance cannot be estimated (it needs more "
+                                "returns than holdings) and would not fit in memory; give a longer price history or "
+                                "fewer holdings");
     EstimateEntry entry;
     entry.heldReturns.resize(window.value().returns.rows(), n);
     for (Eigen::Index i = 0; i < n; ++i)
@@ -260,8 +299,19 @@ Result<const EstimateEntry *> heldEstimate(const PriceHistory &prices, const Hol
 
 } // namespace
 
+static Result<RiskReport> computeRiskUnguarded(const PriceHistory &prices, const Holdings &holdings,
+                                               const Assumptions &assumptions, const RunControl &control,
+                                               EstimateCache &cache, std::uint64_t pricesRevision);
+
 Result<RiskReport> computeRisk(const PriceHistory &prices, const Holdings &holdings, const Assumptions &assumptions,
                                const RunControl &control, EstimateCache &cache, std::uint64_t pricesRevision)
+{
+    return catchLibraryErrors([&] { return computeRiskUnguarded(prices, holdings, assumptions, control, cache, pricesRevision); });
+}
+
+static Result<RiskReport> computeRiskUnguarded(const PriceHistory &prices, const Holdings &holdings,
+                                               const Assumptions &assumptions, const RunControl &control,
+                                               EstimateCache &cache, std::uint64_t pricesRevision)
 {
     if (auto ok = validate(assumptions); !ok)
         return ok.error();
@@ -325,8 +375,17 @@ Result<RiskReport> computeSinglePositionRisk(const SinglePosition &position, con
     return computeSinglePositionRisk(position, assumptions, RunControl{});
 }
 
+static Result<RiskReport> singlePositionUnguarded(const SinglePosition &position, const Assumptions &assumptions,
+                                                  const RunControl &control);
+
 Result<RiskReport> computeSinglePositionRisk(const SinglePosition &position, const Assumptions &assumptions,
                                              const RunControl &control)
+{
+    return catchLibraryErrors([&] { return singlePositionUnguarded(position, assumptions, control); });
+}
+
+static Result<RiskReport> singlePositionUnguarded(const SinglePosition &position, const Assumptions &assumptions,
+                                                  const RunControl &control)
 {
     if (auto ok = validate(assumptions); !ok)
         return ok.error();

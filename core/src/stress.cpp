@@ -3,6 +3,7 @@
 #include "csvtext.h"
 
 #include "tailwise/returns.h"
+#include "tailwise/textlimits.h"
 
 #include <algorithm>
 #include <numeric>
@@ -38,6 +39,9 @@ Result<StressScenario> parseScenarioCsv(std::string_view text, const std::string
 {
     constexpr std::size_t maxLine = 64 * 1024;
     constexpr std::size_t maxRows = 100000;
+    // The name (from the file's name) goes to JSON, the window and paper: the same text rules.
+    if (const auto problem = checkText(name, maxNameChars))
+        return fileError(ErrorKind::Format, source, 0, 0, describeTextProblem(*problem, "the scenario's name (its file name)", maxNameChars));
     csv::LineReader lines(text);
     std::string_view line;
     bool haveHeader = false;
@@ -92,6 +96,9 @@ Result<StressScenario> parseScenarioCsv(std::string_view text, const std::string
         std::string asset(cells[static_cast<std::size_t>(assetCol)].value());
         if (asset.empty())
             return fileError(ErrorKind::Format, source, lineNo, assetCol + 1, "expected an asset name, found an empty cell");
+        if (const auto problem = checkText(asset, maxNameChars))
+            return fileError(ErrorKind::Format, source, lineNo, assetCol + 1,
+                             describeTextProblem(*problem, "the asset name", maxNameChars));
         if (prices && prices->assetIndex(asset) < 0)
             return fileError(ErrorKind::Reference, source, lineNo, assetCol + 1,
                              "the price history has no asset named \"" + asset + "\"");

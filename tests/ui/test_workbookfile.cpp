@@ -493,7 +493,7 @@ void TestWorkbookFile::refusesBadFiles_data()
     }) << D << QStringList{"prices.dates: only 2 dates"};
     QTest::newRow("confidence out of range")
         << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a["confidence"] = 1.5; }); }) << A
-        << QStringList{"assumptions.confidence: expected a level strictly between 0 and 1", "1.5"};
+        << QStringList{"assumptions.confidence: expected a level from 0.5 to 0.9999", "1.5"};
     QTest::newRow("horizon not whole")
         << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a["horizon"] = 2.5; }); }) << V
         << QStringList{"assumptions.horizon: expected a whole number, found 2.5"};

@@ -1,9 +1,11 @@
 #include "workbookfile.h"
+#include "savefile.h"
 
 #include "currencycode.h"
 
 #include "tailwise/backtest.h"
 #include "tailwise/date.h"
+#include "tailwise/textlimits.h"
 
 #include <QDir>
 #include <QFile>
@@ -13,7 +15,6 @@
 #include <QJsonObject>
 #include <QJsonParseError>
 #include <QJsonValue>
-#include <QSaveFile>
 
 #include <algorithm>
 #include <charconv>
@@ -446,6 +447,8 @@ void readPrices(const QJsonObject &o, Context &c, PriceHistory &h)
             return;
         if (name.empty())
             return c.fail(ErrorKind::Format, at, "expected an asset name, found an empty text");
+        if (const auto problem = checkText(name, maxNameChars))
+            return c.fail(ErrorKind::Format, at, describeTextProblem(*problem, "the asset name", maxNameChars));
         if (!seen.insert(name).second)
             return c.fail(ErrorKind::Reference, at, "the asset \"" + name + "\" appears twice");
         h.assets.push_back(std::move(name));
@@ -506,7 +509,8 @@ QJsonArray holdingsJson(const Holdings &holdings)
     for (const Holding &h : holdings) {
         QJsonObject o;
         o["asset"] = QString::fromStdString(h.asset);
-        o["quantity"] = h.quantity;
+        if (!h.value) // a holding is a quantity or a value, never both (both are refused on reading)
+            o["quantity"] = h.quantity;
         if (h.priceOverride)
             o["price"] = *h.priceOverride;
         if (h.value)
@@ -536,6 +540,11 @@ void readHoldings(const QJsonArray &list, const PriceHistory &prices, Context &c
             return c.fail(ErrorKind::Format, at, "expected a \"quantity\" or a \"value\"");
         if (r.has("quantity"))
             r.number("quantity", h.quantity);
+        // Both is ambiguous (which one counts?): refused. A quantity of 0 beside a value is what
+        // earlier versions wrote for a holding given by value, and is read as that value.
+        if (c.ok() && r.has("quantity") && r.has("value") && h.quantity != 0.0)
+            return c.fail(ErrorKind::Format, at,
+                          "has both a \"quantity\" and a \"value\": give one (a number of units, or a money value)");
         if (r.has("price")) {
             double p = 0.0;
             r.number("price", p);
@@ -609,6 +618,8 @@ void readScenarios(const QJsonArray &list, const PriceHistory &prices, Context &
         r.string("name", sc.name);
         if (c.ok() && sc.name.empty())
             return c.fail(ErrorKind::Format, r.pathOf("name"), "expected a scenario name, found an empty text");
+        if (const auto problem = checkText(sc.name, maxNameChars))
+            return c.fail(ErrorKind::Format, r.pathOf("name"), describeTextProblem(*problem, "the scenario name", maxNameChars));
         if (c.ok() && !names.insert(sc.name).second)
             return c.fail(ErrorKind::Reference, r.pathOf("name"), "the scenario \"" + sc.name + "\" appears twice");
         const QJsonArray shocks = r.array("shocks");
@@ -681,8 +692,15 @@ Result<WorkbookContents> contentsFromJson(const QJsonObject &root, const std::st
 
     WorkbookContents contents;
     ObjectReader r(root, "", c);
-    if (r.has("title"))
-        r.string("title", contents.title);
+    if (r.has("title")) {
+        std::string title;
+        r.string("title", title);
+        if (c.ok())
+            if (const auto problem = checkText(title, maxTitleChars))
+                c.fail(ErrorKind::Format, r.pathOf("title"), describeTextProblem(*problem, "the title", maxTitleChars));
+        if (c.ok())
+            contents.title = QString::fromStdString(title);
+    }
     if (c.ok() && r.has("currency")) {
         // Optional (absent: not stated). "" is taken as not stated too; anything else must be a code.
         QString code;
@@ -738,12 +756,6 @@ std::pair<int, int> lineAndColumn(const QByteArray &bytes, qsizetype offset)
 }
 
 // The system's reason, when it gives one.
-std::string reason(const QFileDevice &file)
-{
-    const QString why = file.errorString();
-    return why.isEmpty() || why == QLatin1String("Unknown error") ? std::string() : " (" + text(why) + ")";
-}
-
 Error saveError(const QString &path, const std::string &what)
 {
     return fileError(ErrorKind::FileUnreadable, text(path), 0, 0,
@@ -821,17 +833,14 @@ Status saveWorkbook(const WorkbookContents &contents, const QString &path, const
         return saveError(path, "this is a folder, not a file");
     if (!info.absoluteDir().exists())
         return saveError(path, "the folder " + text(QDir::toNativeSeparators(info.absolutePath())) + " does not exist");
-    QSaveFile file(path);
-    if (!file.open(QIODevice::WriteOnly))
-        return saveError(path, "the file cannot be written" + reason(file));
-    if (file.write(json.value()) != json.value().size()) {
-        const std::string why = reason(file);
-        file.cancelWriting();
-        file.commit(); // discards the temporary file
-        return saveError(path, "writing failed" + why);
+    // One way to write a file (savefile.h): a temporary file, every write, fsync and close checked,
+    // then the rename; a full disk or a refused target leaves the old file as it was.
+    if (auto saved = saveFile(path, json.value()); !saved) {
+        const std::string &message = saved.error().message;
+        const std::string prefix = "could not save " + saved.error().file + ": ";
+        const std::string why = message.rfind(prefix, 0) == 0 ? message.substr(prefix.size()) : message;
+        return saveError(path, "the file cannot be written (" + why + ")");
     }
-    if (!file.commit())
-        return saveError(path, "the file could not be put in place" + reason(file));
     return Done{};
 }
 

@@ -55,7 +55,7 @@
 // as a JSON path with 0-based indices, e.g. "larchmere.tailwise: holdings[3].quantity: expected a
 // number, found a string (\"ten\")"; malformed JSON names the line, column and byte offset.
 //
-// Saving is atomic (QSaveFile: write a temporary file beside the target, then rename over it),
+// Saving is atomic (savefile.h: a temporary file beside the target, every write checked, then renamed over it),
 // so a failed save leaves the previous file as it was. Contents that could not be read back
 // (a non-finite price, a holding of an unknown asset, an assumption out of range) are refused
 // before anything is written.

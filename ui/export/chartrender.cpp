@@ -6,6 +6,7 @@
 #include "charts/losstailchart.h"
 #include "charts/modelcomparisonchart.h"
 #include "charts/tradeoffchart.h"
+#include "document/savefile.h"
 
 #include <qcustomplot.h>
 
@@ -18,7 +19,6 @@
 #include <QPdfWriter>
 #include <QPicture>
 #include <QRegularExpression>
-#include <QSaveFile>
 #include <QSvgGenerator>
 
 #include <algorithm>
@@ -637,22 +637,14 @@ tailwise::Status writeChart(QIODevice &device, const ChartExportSettings &settin
 
 tailwise::Status writeChart(const QString &path, const ChartExportSettings &settings, const WorkbookResults &results)
 {
-    if (auto ok = checkExportSettings(settings); !ok)
-        return ok;
-    QSaveFile file(path);
-    const std::string name = path.toStdString();
-    if (!file.open(QIODevice::WriteOnly))
-        return fileError(ErrorKind::FileUnreadable, name, 0, 0, "cannot write: " + file.errorString().toStdString());
-    auto status = writeChart(file, settings, results);
-    if (!status) {
-        file.cancelWriting();
-        if (status.error().kind == ErrorKind::FileUnreadable)
-            return fileError(ErrorKind::FileUnreadable, name, 0, 0, "cannot write the picture: " + file.errorString().toStdString());
+    // Drawn in memory, then written the one checked way (document/savefile.h): a failed write
+    // leaves no partial picture and the old file as it was.
+    QBuffer buffer;
+    buffer.open(QIODevice::WriteOnly);
+    if (auto status = writeChart(buffer, settings, results); !status)
         return status;
-    }
-    if (!file.commit())
-        return fileError(ErrorKind::FileUnreadable, name, 0, 0, "cannot write: " + file.errorString().toStdString());
-    return Done{};
+    buffer.close();
+    return saveFile(path, buffer.data());
 }
 
 } // namespace tailwise::ui

@@ -72,7 +72,9 @@ ReportData computeReportData(WorkbookContents contents)
     return data;
 }
 
-Result<int> writeReport(const ReportData &data, const QString &workbookName, const QString &pdfPath, QDate date)
+namespace {
+
+report::Document reportDocument(const ReportData &data, const QString &workbookName, QDate date)
 {
     report::ReportInputs in;
     in.contents = &data.contents;
@@ -80,7 +82,7 @@ Result<int> writeReport(const ReportData &data, const QString &workbookName, con
     in.date = date;
     if (!data.results) {
         in.report = data.results.error();
-        return report::writePdf(report::buildReport(in), pdfPath);
+        return report::buildReport(in);
     }
     const WorkbookResults &results = data.results.value();
     in.report = results.report;
@@ -104,7 +106,19 @@ Result<int> writeReport(const ReportData &data, const QString &workbookName, con
     in.charts.contributions = figureFor(ChartKind::Contributions, results);
     in.charts.backtest = figureFor(ChartKind::Backtest, results);
     in.charts.models = figureFor(ChartKind::Models, results);
-    return report::writePdf(report::buildReport(in), pdfPath);
+    return report::buildReport(in);
+}
+
+} // namespace
+
+Result<int> writeReport(const ReportData &data, const QString &workbookName, const QString &pdfPath, QDate date)
+{
+    return report::writePdf(reportDocument(data, workbookName, date), pdfPath);
+}
+
+int writeReport(const ReportData &data, const QString &workbookName, QIODevice &device, QDate date)
+{
+    return report::writePdf(reportDocument(data, workbookName, date), device);
 }
 
 } // namespace tailwise::ui

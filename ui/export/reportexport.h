@@ -13,6 +13,8 @@
 #include <QDate>
 #include <QString>
 
+class QIODevice;
+
 #include <utility>
 #include <vector>
 
@@ -33,5 +35,8 @@ ReportData computeReportData(WorkbookContents contents);
 // Returns the number of pages, or an error naming the file.
 tailwise::Result<int> writeReport(const ReportData &data, const QString &workbookName, const QString &pdfPath,
                                   QDate date = QDate::currentDate());
+// The same report into `device` (e.g. a buffer for standard output); returns the number of pages.
+int writeReport(const ReportData &data, const QString &workbookName, QIODevice &device,
+                QDate date = QDate::currentDate());
 
 } // namespace tailwise::ui

@@ -1,12 +1,14 @@
 #include "reportpdf.h"
 
+#include "document/savefile.h"
+
+#include <QBuffer>
 #include <QCoreApplication>
 #include <QDir>
 #include <QFontMetricsF>
 #include <QPageSize>
 #include <QPainter>
 #include <QPdfWriter>
-#include <QSaveFile>
 
 #include <algorithm>
 #include <cmath>
@@ -528,15 +530,13 @@ int writePdf(const Document &document, QIODevice &device)
 
 Result<int> writePdf(const Document &document, const QString &path)
 {
-    const std::string shown = QDir::toNativeSeparators(path).toStdString();
-    QSaveFile file(path);
-    if (!file.open(QIODevice::WriteOnly))
-        return fileError(ErrorKind::FileUnreadable, shown, 0, 0,
-                         "cannot write the report there (" + file.errorString().toStdString() + ")");
-    const int pages = writePdf(document, file);
-    if (!file.commit())
-        return fileError(ErrorKind::FileUnreadable, shown, 0, 0,
-                         "the report could not be saved (" + file.errorString().toStdString() + ")");
+    // Made in memory, then written the one checked way (document/savefile.h).
+    QBuffer buffer;
+    buffer.open(QIODevice::WriteOnly);
+    const int pages = writePdf(document, buffer);
+    buffer.close();
+    if (auto saved = saveFile(path, buffer.data()); !saved)
+        return saved.error();
     return pages;
 }
 

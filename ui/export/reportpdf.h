@@ -19,7 +19,7 @@ class QIODevice;
 
 namespace tailwise::ui::report {
 
-// Writes the PDF to `path` through a temporary file renamed on success (QSaveFile), so a failed
+// Writes the PDF to `path` through a temporary file renamed on success (document/savefile.h), so a failed
 // write leaves any earlier file as it was. Returns the number of pages; the error names the file.
 Result<int> writePdf(const Document &document, const QString &path);
 // The same into an open device (tests).

@@ -2,6 +2,7 @@
 
 #include "document/commands.h"
 #include "document/resultsstore.h"
+#include "document/savefile.h"
 #include "document/workbook.h"
 #include "holdingspaste.h"
 #include "text/numbers.h"
@@ -18,7 +19,6 @@
 #include <QHeaderView>
 #include <QLabel>
 #include <QLineEdit>
-#include <QSaveFile>
 #include <QSortFilterProxyModel>
 #include <QStyledItemDelegate>
 #include <QTableView>
@@ -271,11 +271,9 @@ QString HoldingsEditor::importHoldingsFile(const QString &path)
 
 QString HoldingsEditor::exportHoldingsFile(const QString &path) const
 {
-    QSaveFile file(path);
     const std::string csv = writeHoldingsCsv(m_workbook.holdings());
-    if (!file.open(QIODevice::WriteOnly) || file.write(csv.data(), static_cast<qint64>(csv.size())) < 0
-        || !file.commit())
-        return tr("Could not write %1: %2").arg(path, file.errorString());
+    if (auto saved = saveFile(path, QByteArray(csv.data(), static_cast<qsizetype>(csv.size()))); !saved)
+        return QString::fromStdString(saved.error().message);
     return {};
 }
 

@@ -3,6 +3,8 @@
 #include "document/commands.h"
 #include "document/workbook.h"
 
+#include "tailwise/textlimits.h"
+
 #include <QFormLayout>
 #include <QLabel>
 #include <QLineEdit>
@@ -20,6 +22,7 @@ WorkbookDetails::WorkbookDetails(Workbook &workbook, QWidget *parent) : QWidget(
     m_title = new QLineEdit(this);
     m_title->setObjectName(QStringLiteral("workbookTitleEdit"));
     m_title->setPlaceholderText(tr("untitled"));
+    m_title->setMaxLength(static_cast<int>(tailwise::maxTitleChars)); // the bound a workbook file is read with
     m_title->setToolTip(tr("The workbook's title, shown in the window title and on reports."));
     form->addRow(tr("Title"), m_title);
 

@@ -36,7 +36,7 @@ struct DegreesOfFreedom {
 };
 
 struct Assumptions {
-    double confidence = 0.99;      // C, 0 < C < 1
+    double confidence = 0.99;      // C, 0.5 ≤ C ≤ 0.9999 (validate)
     int horizonDays = 1;           // H, whole trading days ≥ 1
     int daysPerYear = 252;         // N, for annualised read-outs and the single-position mode
     std::optional<int> window;     // number of most recent returns; all when unset

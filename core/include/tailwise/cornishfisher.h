@@ -23,9 +23,9 @@
 // Monotonicity: z_cf is a valid quantile function only where it increases. Its derivative
 //   z_cf'(z) = A z² + B z + C,  A = K/8 − S²/6,  B = S/3,  C = 1 − K/8 + 5S²/36
 // is never negative exactly when A > 0 and B² ≤ 4AC (or A = B = 0 < C); it is then zero at one
-// point at most, so z_cf still strictly increases. Outside that set
-// the figures are still the formula's, and a warning says the expansion is not monotone.
-// Preconditions: 0 < C < 1.
+// point at most, so z_cf still strictly increases. Outside that set a warning says the expansion
+// is not monotone, and ES is reported as max(ES_cf, VaR_cf): the fallback that keeps ES ≥ VaR.
+// Preconditions: 0.5 ≤ C ≤ 0.9999. (Domain: Maillard 2012, SSRN 1997178, §3; from memory.)
 #pragma once
 
 #include "tailwise/parametric.h"

@@ -286,13 +286,19 @@ std::vector<Case> catalogue()
 
     // --- options ---
     c.push_back(optionCase("option: confidence above 1", {"--confidence", "1.5"}, exitUsage,
-                           {"--confidence", "strictly between 0 and 1", "1.5"}));
-    c.push_back(optionCase("option: confidence 1", {"--confidence", "1"}, exitUsage, {"--confidence", "strictly between 0 and 1"}));
-    c.push_back(optionCase("option: confidence 0", {"--confidence", "0"}, exitUsage, {"--confidence", "strictly between 0 and 1"}));
+                           {"--confidence", "from 0.5 to 0.9999", "1.5"}));
+    c.push_back(optionCase("option: confidence 1", {"--confidence", "1"}, exitUsage, {"--confidence", "from 0.5 to 0.9999"}));
+    c.push_back(optionCase("option: confidence 0", {"--confidence", "0"}, exitUsage, {"--confidence", "from 0.5 to 0.9999"}));
     c.push_back(optionCase("option: confidence negative", {"--confidence", "-0.95"}, exitUsage,
-                           {"--confidence", "strictly between 0 and 1"}));
+                           {"--confidence", "from 0.5 to 0.9999"}));
     c.push_back(optionCase("option: confidence as a percentage word", {"--confidence", "99%"}, exitUsage,
-                           {"--confidence", "expected a confidence level between 0 and 1", "\"99%\""}));
+                           {"--confidence", "expected a confidence level from 0.5 to 0.9999", "\"99%\""}));
+    // The edges: a confidence far below one half reached the special functions' own domain error.
+    c.push_back(optionCase("option: confidence 1e-17", {"--confidence", "1e-17"}, exitUsage, {"--confidence", "from 0.5 to 0.9999", "1e-17"}));
+    c.push_back(optionCase("option: confidence 0.49", {"--confidence", "0.49"}, exitUsage, {"--confidence", "from 0.5 to 0.9999"}));
+    c.push_back(optionCase("option: confidence 0.99999", {"--confidence", "0.99999"}, exitUsage, {"--confidence", "from 0.5 to 0.9999"}));
+    c.push_back(optionCase("option: confidence 1 - 1e-16", {"--confidence", "0.9999999999999999"}, exitUsage,
+                           {"--confidence", "from 0.5 to 0.9999"}));
     c.push_back(optionCase("option: confidence NaN", {"--confidence", "nan"}, exitUsage, {"--confidence", "expected a confidence level"}));
     c.push_back(optionCase("option: horizon 0", {"--horizon", "0"}, exitUsage, {"--horizon", "at least 1"}));
     c.push_back(optionCase("option: horizon negative", {"--horizon", "-10"}, exitUsage, {"--horizon", "at least 1"}));

@@ -1,0 +1,81 @@
+// A save from the window that fails on a full disk — at any point of the file — never looks like
+// a save: the message gives the system's reason, the workbook keeps its unsaved mark and its
+// contents, and the file saved before is byte-for-byte what it was. The disk is a stub of
+// write(2) that fails after a number of bytes (tailwise/filewrite.h's test hook).
+#include "document/commands.h"
+#include "document/workbook.h"
+#include "document/workbookfile.h"
+#include "mainwindow.h"
+#include "windowfixture.h"
+
+#include "tailwise/filewrite.h"
+
+#include <QFile>
+#include <QTemporaryDir>
+#include <QTest>
+
+#include <cerrno>
+
+#include <unistd.h>
+
+using namespace tailwise;
+using namespace tailwise::ui;
+using namespace tailwise::ui::test;
+
+namespace {
+
+std::size_t g_budget = 0;
+ssize_t limitedWrite(int fd, const void *data, std::size_t size)
+{
+    if (g_budget == 0) {
+        errno = ENOSPC;
+        return -1;
+    }
+    const std::size_t n = std::min(size, g_budget);
+    g_budget -= n;
+    return ::write(fd, data, n);
+}
+
+QByteArray readAll(const QString &path)
+{
+    QFile f(path);
+    return f.open(QIODevice::ReadOnly) ? f.readAll() : QByteArray();
+}
+
+} // namespace
+
+class TestSaveFailure : public QObject {
+    Q_OBJECT
+private slots:
+    void initTestCase() { isolateSettings(); }
+
+    void fullDiskKeepsTheUnsavedMark()
+    {
+        auto w = sampleWindow();
+        Workbook &wb = w->workbook();
+        QTemporaryDir dir;
+        const QString path = dir.filePath(QStringLiteral("fund.tailwise"));
+        QVERIFY(w->saveWorkbookFile(path).isEmpty());
+        const QByteArray saved = readAll(path);
+        edit::setTitle(wb, QStringLiteral("Changed after the save"));
+        QVERIFY(wb.isModified());
+        const qsizetype size = workbookJson(wb.contents()).value().size();
+        testing::setFileWriteFunctions(limitedWrite);
+        for (const qsizetype n : {qsizetype(0), qsizetype(1), size / 2, size - 1}) {
+            g_budget = static_cast<std::size_t>(n);
+            const QString problem = w->saveWorkbookFile(path);
+            QVERIFY2(problem.contains(QStringLiteral("No space left on device")), qPrintable(problem));
+            QVERIFY2(problem.contains(path), qPrintable(problem));
+            QVERIFY(wb.isModified());
+            QCOMPARE(wb.title(), QStringLiteral("Changed after the save"));
+            QCOMPARE(readAll(path), saved);
+            QCOMPARE(QDir(dir.path()).entryList(QDir::Files | QDir::Hidden).size(), qsizetype(1));
+        }
+        testing::setFileWriteFunctions(nullptr);
+        QVERIFY(w->saveWorkbookFile(path).isEmpty());
+        QVERIFY(!wb.isModified());
+    }
+};
+
+QTEST_MAIN(TestSaveFailure)
+#include "test_savefailure.moc"
