@@ -2,6 +2,7 @@
 
 #include "tailwise/finitecheck.h"
 
+#include "tailwise/allocation.h"
 #include "tailwise/cornishfisher.h"
 #include "tailwise/estimate.h"
 #include "tailwise/historical.h"
@@ -44,9 +45,6 @@ void fillFigures(RiskReport &report, const Eigen::VectorXd &exposures, const Eig
     if (report.oneDay.sd == 0.0)
         report.warnings.push_back("the portfolio's P&L has zero variance over the window: VaR reflects the mean only");
 
-    const Contributions c = normalContributions(exposures, cov, mean, a.horizonDays, a.confidence);
-    report.undiversifiedVar = c.undiversifiedVar;
-    report.diversificationBenefit = c.diversificationBenefit;
     for (std::size_t i = 0; i < report.holdings.size(); ++i) {
         auto &hr = report.holdings[i];
         const auto k = static_cast<Eigen::Index>(i);
@@ -54,14 +52,28 @@ void fillFigures(RiskReport &report, const Eigen::VectorXd &exposures, const Eig
         if (report.portfolioValue != 0.0)
             hr.weight = exposures(k) / report.portfolioValue;
         hr.dailyVolatility = std::sqrt(std::max(0.0, cov(k, k)));
+    }
+}
+
+// The allocation of the model that gave the figures (allocation.h), into the holdings' rows.
+void storeAllocation(RiskReport &report, const Allocation &c)
+{
+    report.undiversifiedVar = c.undiversifiedVar;
+    report.diversificationBenefit = c.diversificationBenefit;
+    report.model.contributions = report.model.used;
+    for (std::size_t i = 0; i < report.holdings.size(); ++i) {
+        auto &hr = report.holdings[i];
+        const auto k = static_cast<Eigen::Index>(i);
         hr.marginalVar = c.marginalVar(k);
         hr.componentVar = c.componentVar(k);
+        hr.componentShare.reset();
         if (report.figures.var != 0.0)
             hr.componentShare = c.componentVar(k) / report.figures.var;
         hr.componentEs = c.componentEs(k);
         hr.standaloneVar = c.standaloneVar(k);
         hr.standaloneEs = c.standaloneEs(k);
     }
+    report.warnings.insert(report.warnings.end(), c.warnings.begin(), c.warnings.end());
 }
 
 // Fractions and the sign warning, from whichever model gave the figures.
@@ -120,12 +132,50 @@ Error needsHistory(RiskModel model)
                       "single-position mode does not have");
 }
 
-// Replaces the normal figures of `report` with those of the chosen model.
+// The inputs every allocation shares: Σe, σ_p (daily) and the holdings' own daily sd.
+struct AllocationInputs {
+    Eigen::VectorXd sigmaE;
+    double sigmaP = 0.0;
+    Eigen::VectorXd sd;
+};
+
+AllocationInputs allocationInputs(const RiskReport &report)
+{
+    AllocationInputs in;
+    in.sigmaE = report.moments.covariance * report.exposures;
+    in.sigmaP = report.oneDay.sd;
+    in.sd = report.moments.covariance.diagonal().cwiseMax(0.0).cwiseSqrt();
+    return in;
+}
+
+// ν for the horizon under the scaling convention (assumptions.h), with a warning when it cannot
+// be aggregated.
+double horizonDof(RiskReport &report, double nu)
+{
+    const auto &a = report.assumptions;
+    if (a.scaling != MultiDayScaling::Aggregate || a.horizonDays == 1)
+        return nu;
+    if (!(nu > 4.0))
+        report.warnings.push_back("the Student-t with " + std::to_string(nu)
+                                  + " degrees of freedom has no finite kurtosis (ν ≤ 4), so the " + std::to_string(a.horizonDays)
+                                  + "-day sum's ν cannot be found from it: ν is kept unchanged");
+    return aggregateDof(nu, a.horizonDays);
+}
+
+// Replaces the normal figures of `report` with those of the chosen model, and allocates them to
+// the holdings under the same model (allocation.h).
 Status applyModel(RiskReport &report, const RunControl &control)
 {
     const auto &a = report.assumptions;
     report.model = ModelDetails{};
     const bool haveHistory = report.windowReturnsMatrix.rows() > 0;
+    const AllocationInputs in = allocationInputs(report);
+    const Eigen::VectorXd &e = report.exposures;
+    const Eigen::VectorXd &mean = report.moments.mean;
+    auto normalAllocation = [&] {
+        return ellipticalAllocation(e, in.sigmaE, in.sigmaP, in.sd, mean, a.horizonDays, normalQuantile(a.confidence),
+                                    normalTailMeanFactor(a.confidence));
+    };
     switch (a.model) {
     case RiskModel::Normal:
         break;
@@ -137,8 +187,14 @@ Status applyModel(RiskReport &report, const RunControl &control)
             break;
         report.model.used = RiskModel::StudentT;
         report.model.dof = nu;
-        report.figures = studentTVarEs(report.horizon, *nu, a.confidence);
-        break;
+        const double nuH = horizonDof(report, *nu);
+        if (a.scaling == MultiDayScaling::Aggregate)
+            report.model.horizonDof = nuH;
+        report.figures = studentTVarEs(report.horizon, nuH, a.confidence);
+        Allocation c = ellipticalAllocation(e, in.sigmaE, in.sigmaP, in.sd, mean, a.horizonDays,
+                                            studentTVarFactor(nuH, a.confidence), studentTEsFactor(nuH, a.confidence));
+        storeAllocation(report, c);
+        return Done{};
     }
     case RiskModel::CornishFisher: {
         if (!haveHistory)
@@ -148,14 +204,20 @@ Status applyModel(RiskReport &report, const RunControl &control)
             break;
         report.model.used = RiskModel::CornishFisher;
         report.model.shape = shape;
-        const CornishFisherFactors f = cornishFisherFactors(a.confidence, *shape);
+        const Shape used = scaledShape(*shape, a.horizonDays, a.scaling);
+        if (a.scaling == MultiDayScaling::Aggregate)
+            report.model.horizonShape = used;
+        const CornishFisherFactors f = cornishFisherFactors(a.confidence, used);
         report.model.cornishFisherMonotone = f.monotone;
         report.figures = VarEs{f.var * report.horizon.sd - report.horizon.mean, f.es * report.horizon.sd - report.horizon.mean};
         if (!f.monotone)
-            report.warnings.push_back("the Cornish-Fisher expansion is not monotone for skewness " + std::to_string(shape->skewness)
-                                      + " and excess kurtosis " + std::to_string(shape->excessKurtosis)
+            report.warnings.push_back("the Cornish-Fisher expansion is not monotone for skewness " + std::to_string(used.skewness)
+                                      + " and excess kurtosis " + std::to_string(used.excessKurtosis)
                                       + ": it is no longer a quantile function, and its VaR and ES are unreliable");
-        break;
+        Allocation c = cornishFisherAllocation(e, in.sigmaE, in.sigmaP, in.sd, mean, report.windowReturnsMatrix,
+                                               a.horizonDays, a.confidence, a.scaling);
+        storeAllocation(report, c);
+        return Done{};
     }
     case RiskModel::Historical: {
         if (!haveHistory)
@@ -166,12 +228,20 @@ Status applyModel(RiskReport &report, const RunControl &control)
             return hs.error();
         report.model.used = RiskModel::Historical;
         report.model.scenarios = hs.value().scenarios;
-        report.figures = hs.value().figures;
         appendWarnings(report, hs.value().warnings);
-        break;
+        // The figures from the scenario matrix, so that the components add up to them exactly.
+        const bool overlapping = a.historicalHorizon == HistoricalHorizon::Overlapping && a.horizonDays > 1;
+        const Eigen::MatrixXd scenarios = historicalScenarioPnl(report.windowReturnsMatrix, e, a.horizonDays,
+                                                                a.historicalHorizon);
+        Allocation c = scenarioAllocation(scenarios, a.confidence,
+                                          overlapping ? 1.0 : std::sqrt(static_cast<double>(a.horizonDays)));
+        finishAllocation(c, e);
+        report.figures = c.total;
+        storeAllocation(report, c);
+        return Done{};
     }
     case RiskModel::MonteCarlo: {
-        SimulationSettings settings{a.simulations, a.seed, std::nullopt};
+        SimulationSettings settings{a.simulations, a.seed, std::nullopt, true};
         if (a.dof.kind != DegreesOfFreedom::Kind::Unset) {
             if (!haveHistory && a.dof.kind == DegreesOfFreedom::Kind::Fit)
                 return needsHistory(a.model);
@@ -193,9 +263,12 @@ Status applyModel(RiskReport &report, const RunControl &control)
         report.model.standardErrorMethod = mc.value().standardErrorMethod;
         report.figures = mc.value().figures;
         appendWarnings(report, mc.value().warnings);
-        break;
+        storeAllocation(report, *mc.value().allocation);
+        return Done{};
     }
     }
+    // Normal, or a fallback to it.
+    storeAllocation(report, normalAllocation());
     return Done{};
 }
 
