@@ -13,6 +13,18 @@ namespace {
 
 QString tr(const char *text) { return QCoreApplication::translate("TradeoffChart", text); }
 
+QString modelWords(RiskModel model)
+{
+    switch (model) {
+    case RiskModel::Normal: return tr("normal");
+    case RiskModel::StudentT: return tr("Student-t");
+    case RiskModel::CornishFisher: return tr("Cornish–Fisher");
+    case RiskModel::Historical: return tr("historical-simulation");
+    case RiskModel::MonteCarlo: return tr("Monte Carlo");
+    }
+    return tr("normal");
+}
+
 } // namespace
 
 double confidenceToTailScale(double confidence) { return -std::log10(1.0 - confidence); }
@@ -57,15 +69,37 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
         d.note = tr("No finite one-day P&L spread: nothing to draw.");
         return d;
     }
-    d.valid = true;
+    const RiskModel model = report.model.used;
+    d.modelText = tr("Every figure here is under the %1 model, as the headline.").arg(modelWords(model));
     if (oneDay.sd == 0.0)
         d.note = tr("The P&L has no spread over this window: VaR is the expected loss alone at every confidence.");
 
-    std::vector<int> horizons(static_cast<std::size_t>(d.daysPerYear));
-    for (int h = 1; h <= d.daysPerYear; ++h)
+    int lastHorizon = d.daysPerYear;
+    if (model == RiskModel::Historical && a.historicalHorizon == HistoricalHorizon::Overlapping)
+        lastHorizon = std::max(1, std::min(lastHorizon, report.windowReturns - 1));
+    std::vector<int> horizons(static_cast<std::size_t>(lastHorizon));
+    for (int h = 1; h <= lastHorizon; ++h)
         horizons[static_cast<std::size_t>(h - 1)] = h;
 
-    d.byHorizon = normalRiskGrid(oneDay, horizons, options.lineConfidences);
+    auto grid = [&](std::vector<int> hs, std::vector<double> cs) -> std::optional<RiskGrid> {
+        auto g = modelRiskGrid(report, std::move(hs), std::move(cs));
+        if (!g)
+            return std::nullopt;
+        for (double v : g.value().var)
+            if (!std::isfinite(v))
+                return std::nullopt;
+        for (double v : g.value().es)
+            if (!std::isfinite(v))
+                return std::nullopt;
+        return std::move(g).value();
+    };
+    auto byHorizon = grid(horizons, options.lineConfidences);
+    if (!byHorizon) {
+        d.note = tr("The %1 model gives no figures across horizons and confidences here.").arg(modelWords(model));
+        return d;
+    }
+    d.valid = true;
+    d.byHorizon = std::move(*byHorizon);
 
     const int steps = std::max(2, options.confidenceSteps);
     const double t0 = confidenceToTailScale(options.minConfidence);
@@ -78,8 +112,15 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
         // The ends are set exactly, so the range reads 90% … 99.9% and not 99.899999…%.
         confidences.push_back(k == 0 ? options.minConfidence : k == steps - 1 ? options.maxConfidence : tailScaleToConfidence(t));
     }
-    d.byConfidence = normalRiskGrid(oneDay, {d.horizonDays}, confidences);
-    d.map = normalRiskGrid(oneDay, horizons, confidences);
+    auto byConfidence = grid({d.horizonDays}, confidences);
+    auto map = grid(horizons, confidences);
+    if (!byConfidence || !map) {
+        d.valid = false;
+        d.note = tr("The %1 model gives no figures across horizons and confidences here.").arg(modelWords(model));
+        return d;
+    }
+    d.byConfidence = std::move(*byConfidence);
+    d.map = std::move(*map);
 
     const auto [lo, hi] = std::minmax_element(d.map.var.cbegin(), d.map.var.cend());
     d.varMin = *lo;
@@ -109,6 +150,8 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
         d.contours.push_back(std::move(c));
     }
 
+    if (model != RiskModel::Normal)
+        return d; // the turning horizon below is the normal model's
     for (double c : options.lineConfidences) {
         const auto h = normalVarTurningHorizon(oneDay, c);
         if (h && *h >= 1.0 && *h <= d.daysPerYear)

@@ -108,7 +108,7 @@ HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(pare
 QString HeadlinePanel::modelName(const RiskReport &report)
 {
     // By the model's file name, so the text follows the core as models are added.
-    const std::string_view name = toName(report.assumptions.model);
+    const std::string_view name = toName(report.model.used); // the model that gave the figure
     if (name == "normal") return tr("normal");
     if (name == "student-t") return tr("Student-t");
     if (name == "cornish-fisher") return tr("Cornish–Fisher");
@@ -122,7 +122,8 @@ QString HeadlinePanel::sentence(const RiskReport &r)
     const QLocale locale;
     const QString confidence = locale.toString(r.assumptions.confidence * 100.0, 'g', 4) + locale.percent();
     const QString tail = locale.toString((1.0 - r.assumptions.confidence) * 100.0, 'g', 3) + locale.percent();
-    const QString weighting = r.assumptions.estimator == CovarianceEstimator::Ewma
+    // The weighting shapes the covariance, which the historical figure does not use.
+    const QString weighting = r.assumptions.estimator == CovarianceEstimator::Ewma && r.model.used != RiskModel::Historical
                                   ? tr(", recent days weighted more (λ %1)").arg(locale.toString(r.assumptions.lambda, 'f', 3))
                                   : QString();
     QString share = r.varFraction ? tr(" (%1 of the portfolio's value)").arg(percentText(r.varFraction)) : QString();

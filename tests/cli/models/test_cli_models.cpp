@@ -108,7 +108,21 @@ private slots:
         QVERIFY(!o.isEmpty());
         QCOMPARE(o.value("model").toString(), model);
         QCOMPARE(o.value("model_used").toString(), model);
-        QCOMPARE(o.value("contributions_model").toString(), QStringLiteral("normal"));
+        // Every figure under the chosen model (allocation.h): the components add up to its VaR and
+        // ES, and the diversification benefit is its own subtraction.
+        QCOMPARE(o.value("contributions_model").toString(), model);
+        double componentVar = 0.0, componentEs = 0.0, standalone = 0.0;
+        for (const auto h : o.value("contributions").toArray()) {
+            componentVar += h.toObject().value("component_var").toDouble();
+            componentEs += h.toObject().value("component_es").toDouble();
+            standalone += h.toObject().value("standalone_var").toDouble();
+        }
+        const double var = o.value("var").toDouble(), es = o.value("es").toDouble();
+        QVERIFY(std::abs(componentVar - var) <= 1e-9 * var);
+        QVERIFY(std::abs(componentEs - es) <= 1e-9 * es);
+        QVERIFY(std::abs(standalone - o.value("undiversified_var").toDouble()) <= 1e-9 * standalone);
+        QVERIFY(std::abs(o.value("undiversified_var").toDouble() - var - o.value("diversification_benefit").toDouble())
+                <= 1e-9 * standalone);
         QVERIFY(o.value("var").toDouble() > 0.0);
         QVERIFY(o.value("es").toDouble() >= o.value("var").toDouble());
         QVERIFY(allFinite(o));
