@@ -42,8 +42,6 @@ void writeModelAssumptionsJson(JsonWriter &j, const Assumptions &a)
     }
     if (a.model == RiskModel::Historical)
         j.key("hs_horizon").value(toName(a.historicalHorizon));
-    if (a.model == RiskModel::StudentT || a.model == RiskModel::CornishFisher)
-        j.key("scaling").value(toName(a.scaling));
     if (a.model == RiskModel::MonteCarlo) {
         j.key("simulations").value(a.simulations);
         j.key("seed").value(static_cast<double>(a.seed));
@@ -68,12 +66,6 @@ void writeModelJson(JsonWriter &j, const RiskReport &r)
     if (m.shape) {
         j.key("skewness").value(m.shape->skewness);
         j.key("excess_kurtosis").value(m.shape->excessKurtosis);
-    }
-    if (m.horizonDof)
-        j.key("horizon_dof").value(*m.horizonDof);
-    if (m.horizonShape) {
-        j.key("horizon_skewness").value(m.horizonShape->skewness);
-        j.key("horizon_excess_kurtosis").value(m.horizonShape->excessKurtosis);
     }
     if (m.cornishFisherMonotone)
         j.key("cornish_fisher_monotone").value(*m.cornishFisherMonotone);
@@ -154,26 +146,11 @@ std::string modelText(const RiskReport &r)
         out += "Model               Student-t, " + general(*m.dof) + " degrees of freedom"
                + (m.dofFitted ? " (fitted from the P&L's excess kurtosis " + general(m.shape->excessKurtosis) + ")" : "")
                + ", scaled to the covariance's variance\n";
-        if (a.horizonDays > 1)
-            out += "Multi-day scaling   " + std::string(a.scaling == MultiDayScaling::Aggregate
-                                                          ? "aggregate: the t of the " + std::to_string(a.horizonDays)
-                                                                + "-day sum, " + general(m.horizonDof.value_or(*m.dof))
-                                                                + " degrees of freedom (excess kurtosis divided by the horizon)"
-                                                          : "square root of the horizon times the one-day figure")
-                   + "\n";
         break;
     case RiskModel::CornishFisher:
         out += "Model               Cornish-Fisher, skewness " + general(m.shape->skewness) + ", excess kurtosis "
                + general(m.shape->excessKurtosis) + " of the window's daily P&L"
                + (m.cornishFisherMonotone.value_or(true) ? "" : " (expansion not monotone)") + "\n";
-        if (a.horizonDays > 1)
-            out += "Multi-day scaling   "
-                   + (a.scaling == MultiDayScaling::Aggregate && m.horizonShape
-                          ? "aggregate: the " + std::to_string(a.horizonDays) + "-day sum's skewness "
-                                + general(m.horizonShape->skewness) + " and excess kurtosis "
-                                + general(m.horizonShape->excessKurtosis) + " (S/sqrt(H), K/H)"
-                          : std::string("square root of the horizon times the one-day figure"))
-                   + "\n";
         break;
     case RiskModel::Historical:
         out += "Model               historical, " + std::to_string(m.scenarios)

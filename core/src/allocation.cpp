@@ -5,12 +5,31 @@
 
 #include <boost/math/distributions/normal.hpp>
 
+#include <algorithm>
 #include <cassert>
 #include <cmath>
 #include <numbers>
 #include <span>
 
 namespace tailwise {
+
+std::string_view toName(MultiDayScaling v) { return v == MultiDayScaling::SquareRoot ? "sqrt" : "aggregate"; }
+
+std::optional<MultiDayScaling> parseMultiDayScaling(std::string_view n)
+{
+    if (n == "sqrt")
+        return MultiDayScaling::SquareRoot;
+    if (n == "aggregate")
+        return MultiDayScaling::Aggregate;
+    return std::nullopt;
+}
+
+double aggregateDof(double dailyDof, int horizonDays)
+{
+    if (!(dailyDof > 4.0))
+        return dailyDof;
+    return std::min(4.0 + static_cast<double>(horizonDays) * (dailyDof - 4.0), 1e6);
+}
 
 void finishAllocation(Allocation &a, const Eigen::VectorXd &e)
 {

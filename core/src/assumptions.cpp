@@ -1,6 +1,5 @@
 #include "tailwise/assumptions.h"
 
-#include <algorithm>
 #include <cmath>
 
 namespace tailwise {
@@ -44,8 +43,6 @@ Status validate(const Assumptions &a)
     if (a.simulations < 1000 || a.simulations > 10000000)
         return fieldError(ErrorKind::Assumption, "simulations",
                           "expected between 1000 and 10000000 draws, found " + std::to_string(a.simulations));
-    if (a.scaling != MultiDayScaling::SquareRoot && a.scaling != MultiDayScaling::Aggregate)
-        return fieldError(ErrorKind::Assumption, "scaling", "expected 'sqrt' or 'aggregate'");
     return Done{};
 }
 
@@ -64,8 +61,6 @@ std::string_view toName(RiskModel v)
     return "normal";
 }
 std::string_view toName(HistoricalHorizon v) { return v == HistoricalHorizon::SquareRoot ? "sqrt" : "overlapping"; }
-
-std::string_view toName(MultiDayScaling v) { return v == MultiDayScaling::SquareRoot ? "sqrt" : "aggregate"; }
 
 std::optional<ReturnType> parseReturnType(std::string_view n)
 {
@@ -99,20 +94,6 @@ std::optional<HistoricalHorizon> parseHistoricalHorizon(std::string_view n)
     if (n == "sqrt") return HistoricalHorizon::SquareRoot;
     if (n == "overlapping") return HistoricalHorizon::Overlapping;
     return std::nullopt;
-}
-
-std::optional<MultiDayScaling> parseMultiDayScaling(std::string_view n)
-{
-    if (n == "sqrt") return MultiDayScaling::SquareRoot;
-    if (n == "aggregate") return MultiDayScaling::Aggregate;
-    return std::nullopt;
-}
-
-double aggregateDof(double dailyDof, int horizonDays)
-{
-    if (!(dailyDof > 4.0))
-        return dailyDof;
-    return std::min(4.0 + static_cast<double>(horizonDays) * (dailyDof - 4.0), 1e6);
 }
 
 double ewmaEffectiveDays(double lambda) { return 1.0 / (1.0 - lambda); }

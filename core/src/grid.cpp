@@ -1,4 +1,5 @@
 #include "tailwise/grid.h"
+#include "tailwise/modelgrid.h"
 
 #include "tailwise/allocation.h"
 #include "tailwise/cornishfisher.h"
@@ -147,10 +148,9 @@ Result<RiskGrid> monteCarloGrid(const RiskReport &r, std::vector<int> horizons, 
 } // namespace
 
 Result<RiskGrid> modelRiskGrid(const RiskReport &r, std::vector<int> horizons, std::vector<double> confidences,
-                               const RunControl &control)
+                               MultiDayScaling scaling, const RunControl &control)
 {
-    const auto &a = r.assumptions;
-    const bool aggregate = a.scaling == MultiDayScaling::Aggregate;
+    const bool aggregate = scaling == MultiDayScaling::Aggregate;
     switch (r.model.used) {
     case RiskModel::Normal:
         break;
@@ -176,7 +176,7 @@ Result<RiskGrid> modelRiskGrid(const RiskReport &r, std::vector<int> horizons, s
         return factorGrid(r.oneDay, std::move(horizons), confidences, [&](int h, std::size_t k) {
             if (!aggregate || h == 1)
                 return daily[k];
-            const CornishFisherFactors f = cornishFisherFactors(confidences[k], scaledShape(shape, h, a.scaling));
+            const CornishFisherFactors f = cornishFisherFactors(confidences[k], scaledShape(shape, h, scaling));
             return VarEs{f.var, f.es};
         });
     }

@@ -148,12 +148,16 @@ AllocationInputs allocationInputs(const RiskReport &report)
     return in;
 }
 
-// ν for the horizon under the scaling convention (assumptions.h), with a warning when it cannot
-// be aggregated.
+// The multi-day convention of the Student-t and Cornish–Fisher figures (multidayscaling.h). The
+// assumptions offer square-root scaling only; the aggregate path is the allocation's and the grid's.
+MultiDayScaling scalingOf(const Assumptions &) { return MultiDayScaling::SquareRoot; }
+
+// ν for the horizon under the scaling convention (multidayscaling.h), with a warning when it
+// cannot be aggregated.
 double horizonDof(RiskReport &report, double nu)
 {
     const auto &a = report.assumptions;
-    if (a.scaling != MultiDayScaling::Aggregate || a.horizonDays == 1)
+    if (scalingOf(a) != MultiDayScaling::Aggregate || a.horizonDays == 1)
         return nu;
     if (!(nu > 4.0))
         report.warnings.push_back("the Student-t with " + std::to_string(nu)
@@ -188,8 +192,6 @@ Status applyModel(RiskReport &report, const RunControl &control)
         report.model.used = RiskModel::StudentT;
         report.model.dof = nu;
         const double nuH = horizonDof(report, *nu);
-        if (a.scaling == MultiDayScaling::Aggregate)
-            report.model.horizonDof = nuH;
         report.figures = studentTVarEs(report.horizon, nuH, a.confidence);
         Allocation c = ellipticalAllocation(e, in.sigmaE, in.sigmaP, in.sd, mean, a.horizonDays,
                                             studentTVarFactor(nuH, a.confidence), studentTEsFactor(nuH, a.confidence));
@@ -204,9 +206,7 @@ Status applyModel(RiskReport &report, const RunControl &control)
             break;
         report.model.used = RiskModel::CornishFisher;
         report.model.shape = shape;
-        const Shape used = scaledShape(*shape, a.horizonDays, a.scaling);
-        if (a.scaling == MultiDayScaling::Aggregate)
-            report.model.horizonShape = used;
+        const Shape used = scaledShape(*shape, a.horizonDays, scalingOf(a));
         const CornishFisherFactors f = cornishFisherFactors(a.confidence, used);
         report.model.cornishFisherMonotone = f.monotone;
         report.figures = VarEs{f.var * report.horizon.sd - report.horizon.mean, f.es * report.horizon.sd - report.horizon.mean};
@@ -215,7 +215,7 @@ Status applyModel(RiskReport &report, const RunControl &control)
                                       + " and excess kurtosis " + std::to_string(used.excessKurtosis)
                                       + ": it is no longer a quantile function, and its VaR and ES are unreliable");
         Allocation c = cornishFisherAllocation(e, in.sigmaE, in.sigmaP, in.sd, mean, report.windowReturnsMatrix,
-                                               a.horizonDays, a.confidence, a.scaling);
+                                               a.horizonDays, a.confidence, scalingOf(a));
         storeAllocation(report, c);
         return Done{};
     }

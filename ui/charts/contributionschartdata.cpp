@@ -78,13 +78,6 @@ ContributionsChartData buildContributionsChartData(const RiskReport &report, con
                               .arg(chartstyle::money(d.diversificationBenefit), share)
                         : tr("VaR is not subadditive here:\ntogether %1 more, %2 of the\nsum of standalone VaRs")
                               .arg(chartstyle::money(-d.diversificationBenefit), share);
-    switch (report.model.contributions) {
-    case RiskModel::Normal: d.modelText = tr("Under the normal model, as the headline"); break;
-    case RiskModel::StudentT: d.modelText = tr("Under the Student-t model, as the headline"); break;
-    case RiskModel::CornishFisher: d.modelText = tr("Under the Cornish–Fisher model, as the headline"); break;
-    case RiskModel::Historical: d.modelText = tr("Under the historical-simulation model, as the headline"); break;
-    case RiskModel::MonteCarlo: d.modelText = tr("Under the Monte Carlo model, as the headline"); break;
-    }
     return d;
 }
 

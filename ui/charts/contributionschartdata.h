@@ -35,8 +35,7 @@ struct ContributionsChartData {
     std::vector<ContributionBar> bars;      // sorted by componentVar, largest first; the pooled bar (if any) last
     double portfolioVar = 0.0;
     double undiversifiedVar = 0.0;
-    double diversificationBenefit = 0.0; // may be negative (VaR not subadditive under the model)
-    QString modelText;                   // which model the bars follow
+    double diversificationBenefit = 0.0;
     bool hasHedges = false;
     QString valueLabel;                     // axis label, with the horizon and confidence
     QString stepLabel;                      // the step chart's money axis label

@@ -181,13 +181,13 @@ void TradeoffChart::buildMapPlot()
 void TradeoffChart::setData(const TradeoffChartData &data)
 {
     m_data = data;
-    m_note->setText(data.note.isEmpty() ? data.modelText : data.modelText + QLatin1Char(' ') + data.note);
+    m_note->setText(data.note);
     if (!data.varLabel.isEmpty()) { // names the workbook's currency when it has one
         m_horizonPlot->yAxis->setLabel(data.varLabel);
         m_confidencePlot->yAxis->setLabel(data.varLabel);
         m_scale->axis()->setLabel(data.varLabel);
     }
-    m_note->setVisible(!m_note->text().isEmpty());
+    m_note->setVisible(!data.note.isEmpty());
     fillHorizonPlot();
     fillConfidencePlot();
     fillMapPlot();

@@ -2,6 +2,8 @@
 
 #include "charts/chartstyle.h"
 
+#include "tailwise/modelgrid.h"
+
 #include <QCoreApplication>
 
 #include <algorithm>
@@ -70,9 +72,11 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
         return d;
     }
     const RiskModel model = report.model.used;
-    d.modelText = tr("Every figure here is under the %1 model, as the headline.").arg(modelWords(model));
+    // Which model every cell follows, then anything else to say.
+    d.note = tr("Every figure here is under the %1 model, as the headline.").arg(modelWords(model));
     if (oneDay.sd == 0.0)
-        d.note = tr("The P&L has no spread over this window: VaR is the expected loss alone at every confidence.");
+        d.note += QLatin1Char(' ')
+                + tr("The P&L has no spread over this window: VaR is the expected loss alone at every confidence.");
 
     int lastHorizon = d.daysPerYear;
     if (model == RiskModel::Historical && a.historicalHorizon == HistoricalHorizon::Overlapping)
@@ -80,26 +84,6 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
     std::vector<int> horizons(static_cast<std::size_t>(lastHorizon));
     for (int h = 1; h <= lastHorizon; ++h)
         horizons[static_cast<std::size_t>(h - 1)] = h;
-
-    auto grid = [&](std::vector<int> hs, std::vector<double> cs) -> std::optional<RiskGrid> {
-        auto g = modelRiskGrid(report, std::move(hs), std::move(cs));
-        if (!g)
-            return std::nullopt;
-        for (double v : g.value().var)
-            if (!std::isfinite(v))
-                return std::nullopt;
-        for (double v : g.value().es)
-            if (!std::isfinite(v))
-                return std::nullopt;
-        return std::move(g).value();
-    };
-    auto byHorizon = grid(horizons, options.lineConfidences);
-    if (!byHorizon) {
-        d.note = tr("The %1 model gives no figures across horizons and confidences here.").arg(modelWords(model));
-        return d;
-    }
-    d.valid = true;
-    d.byHorizon = std::move(*byHorizon);
 
     const int steps = std::max(2, options.confidenceSteps);
     const double t0 = confidenceToTailScale(options.minConfidence);
@@ -112,15 +96,46 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
         // The ends are set exactly, so the range reads 90% … 99.9% and not 99.899999…%.
         confidences.push_back(k == 0 ? options.minConfidence : k == steps - 1 ? options.maxConfidence : tailScaleToConfidence(t));
     }
-    auto byConfidence = grid({d.horizonDays}, confidences);
-    auto map = grid(horizons, confidences);
-    if (!byConfidence || !map) {
-        d.valid = false;
-        d.note = tr("The %1 model gives no figures across horizons and confidences here.").arg(modelWords(model));
+
+    // One grid over every horizon and every confidence the three pictures need (so Monte Carlo
+    // draws once), then each picture is a slice of it: a cell depends on its (H, C) alone.
+    std::vector<double> allConfidences = confidences;
+    allConfidences.insert(allConfidences.end(), options.lineConfidences.begin(), options.lineConfidences.end());
+    std::vector<int> allHorizons = horizons;
+    const bool currentInside = d.horizonDays >= 1 && d.horizonDays <= lastHorizon;
+    if (!currentInside)
+        allHorizons.push_back(d.horizonDays);
+    auto all = modelRiskGrid(report, allHorizons, allConfidences);
+    bool finite = all.ok();
+    if (finite)
+        for (std::size_t k = 0; k < all.value().var.size(); ++k)
+            finite = finite && std::isfinite(all.value().var[k]) && std::isfinite(all.value().es[k]);
+    if (!finite) {
+        d.note += QLatin1Char(' ') + tr("It gives no figures across horizons and confidences here.");
         return d;
     }
-    d.byConfidence = std::move(*byConfidence);
-    d.map = std::move(*map);
+    const RiskGrid &g = all.value();
+    auto slice = [&](const std::vector<std::size_t> &rows, std::size_t firstColumn, std::size_t columns) {
+        RiskGrid out;
+        for (std::size_t row : rows)
+            out.horizons.push_back(g.horizons[row]);
+        out.confidences.assign(g.confidences.begin() + static_cast<std::ptrdiff_t>(firstColumn),
+                               g.confidences.begin() + static_cast<std::ptrdiff_t>(firstColumn + columns));
+        for (std::size_t row : rows)
+            for (std::size_t c = firstColumn; c < firstColumn + columns; ++c) {
+                out.var.push_back(g.varAt(row, c));
+                out.es.push_back(g.esAt(row, c));
+            }
+        return out;
+    };
+    std::vector<std::size_t> horizonRows(horizons.size());
+    for (std::size_t k = 0; k < horizons.size(); ++k)
+        horizonRows[k] = k;
+    const std::size_t currentRow = currentInside ? static_cast<std::size_t>(d.horizonDays - 1) : horizons.size();
+    d.valid = true;
+    d.byHorizon = slice(horizonRows, confidences.size(), options.lineConfidences.size());
+    d.byConfidence = slice({currentRow}, 0, confidences.size());
+    d.map = slice(horizonRows, 0, confidences.size());
 
     const auto [lo, hi] = std::minmax_element(d.map.var.cbegin(), d.map.var.cend());
     d.varMin = *lo;

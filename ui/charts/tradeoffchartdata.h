@@ -1,7 +1,6 @@
 // The numbers behind the horizon-and-confidence view, built from a core RiskReport.
 //
-// Three pictures, all cells of core's modelRiskGrid under the model that gave the report's figures
-// (grid.h: the headline's definitions at every (H, C), so the marker lies on its curve):
+// Three pictures, all cells of core's normalRiskGrid (VaR(H, C) = z(C) √H σ_1 − H μ_1, grid.h):
 //   byHorizon    — horizons 1 … daysPerYear (every trading day) × the line confidences;
 //   byConfidence — the current horizon × confidences from minConfidence to maxConfidence;
 //   map          — horizons 1 … daysPerYear × confidences evenly spaced in the "tail scale"
@@ -9,11 +8,9 @@
 //                  that matter get as much room as the low ones.
 // The map keeps whole trading days on a linear horizon axis: core's grid is defined at whole
 // days, and a linear axis shows the long-horizon turn of VaR plainly. Contours at round money
-// levels come from marching squares (contours.h) in (horizon, tail scale) coordinates. Under the
-// normal model with an expected gain (μ_1 > 0) the ridge H*(C) = (z σ_1 / (2 μ_1))² (core:
-// normalVarTurningHorizon) is where VaR stops growing with horizon; it is given where it falls
-// inside 1 … daysPerYear. Historical with overlapping sums reaches only horizons with at least two
-// sums in the window. `modelText` names the model the cells follow.
+// levels come from marching squares (contours.h) in (horizon, tail scale) coordinates. With an
+// expected gain (μ_1 > 0) the ridge H*(C) = (z σ_1 / (2 μ_1))² (core: normalVarTurningHorizon)
+// is where VaR stops growing with horizon; it is given where it falls inside 1 … daysPerYear.
 #pragma once
 
 #include "charts/contours.h"
@@ -70,7 +67,6 @@ struct TradeoffChartData {
     QString ridgeLabel;
 
     QString horizonLabel, confidenceLabel, varLabel;
-    QString modelText; // "Every figure here is under the … model", shown with the note
 };
 
 TradeoffChartData buildTradeoffChartData(const RiskReport &report, const TradeoffOptions &options = {});

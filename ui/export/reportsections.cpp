@@ -76,15 +76,6 @@ QString modelDetail(const RiskReport &r)
     return parts.join(QLatin1Char(' '));
 }
 
-QString scalingWords(const Assumptions &a)
-{
-    return a.scaling == MultiDayScaling::Aggregate
-               ? tr("; to reach the horizon, the model is applied to the sum of independent days (skewness divided by "
-                    "the square root of the horizon, excess kurtosis by the horizon)")
-               : tr("; to reach the horizon, the one-day figure is multiplied by the square root of the horizon, with "
-                    "the one-day tails (a common regulatory convention)");
-}
-
 } // namespace
 
 std::vector<int> reportHorizons(const Assumptions &a)
@@ -417,9 +408,7 @@ void addAssumptions(Document &doc, const WorkbookContents &w, const RiskReport *
     case RiskModel::StudentT:
         model += a.dof.kind == DegreesOfFreedom::Kind::Given ? tr(", ν = %1").arg(number(a.dof.value, 2))
                                                              : tr(", ν fitted to the window's P&L");
-        model += scalingWords(a);
         break;
-    case RiskModel::CornishFisher: model += scalingWords(a); break;
     case RiskModel::Historical: model += QStringLiteral(", ") + historicalHorizonLabel(a.historicalHorizon); break;
     case RiskModel::MonteCarlo:
         model += tr(", %1 draws, seed %2").arg(locale.toString(a.simulations), QString::number(a.seed));
@@ -444,7 +433,9 @@ void addAssumptions(Document &doc, const WorkbookContents &w, const RiskReport *
     doc.add(t);
 }
 
-void addCautions(Document &doc, bool withBacktest, double confidence)
+namespace {
+
+void addCautionsAt(Document &doc, bool withBacktest, double confidence)
 {
     doc.add(TextStyle::Heading, tr("Cautions"));
     for (const CautionsNote::Caution &c : CautionsNote::cautions(confidence)) {
@@ -456,6 +447,14 @@ void addCautions(Document &doc, bool withBacktest, double confidence)
         doc.add(TextStyle::Body, backtestwords::caution());
     }
 }
+
+} // namespace
+
+void addCautions(Document &doc, bool withBacktest)
+{
+    addCautionsAt(doc, withBacktest, 0.99);
+}
+
 
 Document buildReport(const ReportInputs &in)
 {
@@ -482,7 +481,7 @@ Document buildReport(const ReportInputs &in)
     if (report && in.models)
         addModelComparison(doc, *in.models, *report, in.charts.models);
     addAssumptions(doc, *in.contents, report);
-    addCautions(doc, in.backtest.has_value(), in.contents->assumptions.confidence);
+    addCautionsAt(doc, in.backtest.has_value(), in.contents->assumptions.confidence);
     return doc;
 }
 

@@ -68,7 +68,7 @@ void addBacktest(Document &doc, const BacktestPart &backtest, const ChartFigure 
 void addModelComparison(Document &doc, const tailwise::Result<std::vector<tailwise::ModelRow>> &rows,
                         const tailwise::RiskReport &report, const ChartFigure &chart);
 void addAssumptions(Document &doc, const WorkbookContents &contents, const tailwise::RiskReport *report);
-void addCautions(Document &doc, bool withBacktest, double confidence = 0.99);
+void addCautions(Document &doc, bool withBacktest);
 
 // The horizons and confidences of the report's VaR table: the window's quick choices and the
 // current setting, each once, in order.

@@ -189,18 +189,21 @@ QVariant HoldingsModel::data(const QModelIndex &index, int role) const
     }
 }
 
-QString HoldingsModel::figuresModelName() const
+namespace {
+// The model the figures follow, in words.
+QString figuresModelName(const Workbook &workbook)
 {
-    const auto &report = m_workbook.report();
-    switch (report ? report->model.used : m_workbook.assumptions().model) {
-    case RiskModel::Normal: return tr("normal");
-    case RiskModel::StudentT: return tr("Student-t");
-    case RiskModel::CornishFisher: return tr("Cornish–Fisher");
-    case RiskModel::Historical: return tr("historical-simulation");
-    case RiskModel::MonteCarlo: return tr("Monte Carlo");
+    const auto &report = workbook.report();
+    switch (report ? report->model.used : workbook.assumptions().model) {
+    case RiskModel::Normal: return HoldingsModel::tr("normal");
+    case RiskModel::StudentT: return HoldingsModel::tr("Student-t");
+    case RiskModel::CornishFisher: return HoldingsModel::tr("Cornish–Fisher");
+    case RiskModel::Historical: return HoldingsModel::tr("historical-simulation");
+    case RiskModel::MonteCarlo: return HoldingsModel::tr("Monte Carlo");
     }
-    return tr("normal");
+    return HoldingsModel::tr("normal");
 }
+} // namespace
 
 QVariant HoldingsModel::headerData(int section, Qt::Orientation orientation, int role) const
 {
@@ -233,11 +236,11 @@ QVariant HoldingsModel::headerData(int section, Qt::Orientation orientation, int
         case StandaloneVarColumn:
             return tr("The Value-at-Risk this holding would have if it were the whole portfolio, under the %1 model "
                       "as the headline.")
-                .arg(figuresModelName());
+                .arg(figuresModelName(m_workbook));
         case VarShareColumn:
             return tr("This holding's part of the portfolio's VaR (its component VaR over the total), under the %1 "
                       "model as the headline. The parts add up to 100%; a negative part is a hedge that lowers the total.")
-                .arg(figuresModelName());
+                .arg(figuresModelName(m_workbook));
         default: return {};
         }
     }

@@ -52,7 +52,6 @@ signals:
     void editRefused(const QModelIndex &index, const QString &reason);
 
 private:
-    QString figuresModelName() const; // the model the figures follow, in words
     bool refuse(const QModelIndex &index, const QString &reason);
     // Risk columns read the report only when it was computed for these holdings (same rows,
     // same assets); otherwise they stay blank until the new results arrive.

@@ -59,16 +59,6 @@ ModelSettings::ModelSettings(Workbook &workbook, QWidget *parent) : QWidget(pare
                                        "observations than they seem)."));
     m_form->addRow(tr("Horizon by"), m_historicalHorizon);
 
-    m_scaling = new QComboBox(this);
-    m_scaling->setObjectName(QStringLiteral("scaling"));
-    m_scaling->addItem(tr("One-day figure × √horizon"), int(MultiDayScaling::SquareRoot));
-    m_scaling->addItem(tr("The model on the horizon's sum of days"), int(MultiDayScaling::Aggregate));
-    m_scaling->setToolTip(tr("How the figure reaches the horizon: the one-day figure times the square root of the "
-                             "horizon with the one-day tails (a common regulatory convention), or the model applied "
-                             "to the sum of independent days, whose tails are thinner: skewness divided by √horizon "
-                             "and excess kurtosis by the horizon."));
-    m_form->addRow(tr("Multi-day"), m_scaling);
-
     m_simulations = new QSpinBox(this);
     m_simulations->setObjectName(QStringLiteral("simulations"));
     m_simulations->setRange(1000, 10000000);
@@ -97,13 +87,6 @@ ModelSettings::ModelSettings(Workbook &workbook, QWidget *parent) : QWidget(pare
         if (a.historicalHorizon == m_workbook.assumptions().historicalHorizon)
             return;
         edit::setAssumptions(m_workbook, a, tr("Set historical horizon to %1").arg(m_historicalHorizon->currentText()));
-    });
-    connect(m_scaling, &QComboBox::currentIndexChanged, this, [this](int) {
-        Assumptions a = m_workbook.assumptions();
-        a.scaling = MultiDayScaling(m_scaling->currentData().toInt());
-        if (a.scaling == m_workbook.assumptions().scaling)
-            return;
-        edit::setAssumptions(m_workbook, a, tr("Set multi-day scaling to %1").arg(m_scaling->currentText()));
     });
     connect(m_simulations, &QSpinBox::valueChanged, this, [this](int n) {
         Assumptions a = m_workbook.assumptions();
@@ -162,8 +145,7 @@ void ModelSettings::commitSeed()
 void ModelSettings::refresh()
 {
     const Assumptions &a = m_workbook.assumptions();
-    const QSignalBlocker b1(m_dofKind), b2(m_dof), b3(m_historicalHorizon), b4(m_simulations), b5(m_seed),
-        b6(m_scaling);
+    const QSignalBlocker b1(m_dofKind), b2(m_dof), b3(m_historicalHorizon), b4(m_simulations), b5(m_seed);
     const bool t = a.model == RiskModel::StudentT;
     const bool mc = a.model == RiskModel::MonteCarlo;
     const bool hs = a.model == RiskModel::Historical;
@@ -182,7 +164,6 @@ void ModelSettings::refresh()
     if (a.dof.kind == DegreesOfFreedom::Kind::Given && m_dof->value() != a.dof.value)
         m_dof->setValue(a.dof.value);
     m_historicalHorizon->setCurrentIndex(std::max(0, m_historicalHorizon->findData(int(a.historicalHorizon))));
-    m_scaling->setCurrentIndex(std::max(0, m_scaling->findData(int(a.scaling))));
     if (m_simulations->value() != a.simulations)
         m_simulations->setValue(a.simulations);
     if (!m_seed->hasFocus())
@@ -191,7 +172,6 @@ void ModelSettings::refresh()
     showRow(m_dofKind, t || mc);
     showRow(m_dof, (t || mc) && choice == DofGiven);
     showRow(m_historicalHorizon, hs);
-    showRow(m_scaling, t || a.model == RiskModel::CornishFisher);
     showRow(m_simulations, mc);
     showRow(m_seed, mc);
 

@@ -38,7 +38,6 @@ private:
     QComboBox *m_dofKind = nullptr;     // fit / given / (monte carlo) normal draws
     QDoubleSpinBox *m_dof = nullptr;
     QComboBox *m_historicalHorizon = nullptr;
-    QComboBox *m_scaling = nullptr;
     QSpinBox *m_simulations = nullptr;
     QLineEdit *m_seed = nullptr;
     QLabel *m_note = nullptr;

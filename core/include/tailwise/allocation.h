@@ -66,6 +66,7 @@
 #pragma once
 
 #include "tailwise/assumptions.h"
+#include "tailwise/multidayscaling.h"
 #include "tailwise/parametric.h"
 #include "tailwise/result.h"
 #include "tailwise/shape.h"

@@ -22,13 +22,6 @@ enum class RiskModel { Normal, StudentT, CornishFisher, Historical, MonteCarlo }
 // How historical simulation reaches an H-day horizon: √H times the one-day figures, or from the
 // sums of H consecutive daily P&L (historical.h).
 enum class HistoricalHorizon { SquareRoot, Overlapping };
-// How the Student-t and Cornish–Fisher models reach an H-day horizon: sqrt, √H times the one-day
-// figure with the one-day shape (a common regulatory convention); aggregate, the model applied to
-// the moments of the sum of H independent days — skewness S/√H and excess kurtosis K/H
-// (cumulants of a sum of i.i.d. variables add; e.g. Kendall & Stuart, The Advanced Theory of
-// Statistics, vol. 1, on cumulants of sums (mem)); for Student-t the ν whose excess kurtosis
-// 6/(ν−4) equals K/H, i.e. ν_H = 4 + H(ν − 4), ν unchanged when ν ≤ 4 (infinite kurtosis).
-enum class MultiDayScaling { SquareRoot, Aggregate };
 
 // Degrees of freedom ν of the Student-t model and of Monte Carlo's t draws: unset (Student-t fits
 // ν by moments, Monte Carlo draws normal), a given ν > 2, or fitted by moments (studentt.h).
@@ -54,7 +47,6 @@ struct Assumptions {
     RiskModel model = RiskModel::Normal;
     DegreesOfFreedom dof;                                      // student-t, monte-carlo
     HistoricalHorizon historicalHorizon = HistoricalHorizon::SquareRoot; // historical
-    MultiDayScaling scaling = MultiDayScaling::SquareRoot;     // student-t, cornish-fisher
     int simulations = 100000;                                  // monte-carlo draws, 1000 … 10,000,000
     std::uint64_t seed = 1;                                    // monte-carlo: same seed → same figures
 };
@@ -67,17 +59,11 @@ std::string_view toName(CovarianceEstimator value);
 std::string_view toName(MeanModel value);
 std::string_view toName(RiskModel value);
 std::string_view toName(HistoricalHorizon value); // "sqrt", "overlapping"
-std::string_view toName(MultiDayScaling value);   // "sqrt", "aggregate"
 std::optional<ReturnType> parseReturnType(std::string_view name);
 std::optional<CovarianceEstimator> parseEstimator(std::string_view name);
 std::optional<MeanModel> parseMeanModel(std::string_view name);
 std::optional<RiskModel> parseRiskModel(std::string_view name);
 std::optional<HistoricalHorizon> parseHistoricalHorizon(std::string_view name);
-std::optional<MultiDayScaling> parseMultiDayScaling(std::string_view name);
-
-// ν of the H-day sum under MultiDayScaling::Aggregate: 4 + H(ν − 4) for ν > 4, else ν unchanged
-// (see MultiDayScaling).
-double aggregateDof(double dailyDof, int horizonDays);
 
 // The EWMA's effective number of days, 1/(1−λ): the mean age weighting of its observations
 // plus one (common practice as a read-out of λ; e.g. λ = 0.94 → about 16.7 days).

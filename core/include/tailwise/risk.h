@@ -7,11 +7,9 @@
 //
 // The model (Assumptions::model) chooses how VaR and ES are computed: normal (parametric.h),
 // student-t (studentt.h), cornish-fisher (cornishfisher.h), historical (historical.h) or
-// monte-carlo (simulate.h). σ_h and μ_h are always the covariance-based horizon moments above.
-// The contributions, standalone figures, undiversified VaR and diversification benefit follow the
-// model that gave the figures (allocation.h; ModelDetails::contributions names it, always equal to
-// ModelDetails::used). Under MultiDayScaling::Aggregate, Student-t uses ν_H and Cornish–Fisher
-// S/√H, K/H (assumptions.h); ModelDetails says which. Student-t with ν fitted, or
+// monte-carlo (simulate.h). σ_h and μ_h are always the covariance-based horizon moments above; the
+// contributions, standalone figures and diversification follow the model that gave the figures
+// (allocation.h; ModelDetails::contributions equals ModelDetails::used). Student-t with ν fitted, or
 // Cornish–Fisher, fall back to the normal model with a warning when the P&L's shape cannot be
 // estimated or has no excess kurtosis; ModelDetails::used names the model that gave the figures.
 #pragma once
@@ -44,7 +42,7 @@ struct HoldingRisk {
     std::optional<double> weight;        // exposure / V
     double dailyVolatility = 0.0;        // σ_i of the asset's returns
     double marginalVar = 0.0;
-    double componentVar = 0.0;           // these five under the model that gave the figures
+    double componentVar = 0.0;
     std::optional<double> componentShare; // component / VaR
     double componentEs = 0.0;
     double standaloneVar = 0.0;
@@ -58,8 +56,6 @@ struct ModelDetails {
     std::optional<double> dof;                   // ν (student-t; monte-carlo with t draws)
     bool dofFitted = false;                      // ν came from the moment fit
     std::optional<Shape> shape;                  // S, K of the daily P&L (cornish-fisher, t fit)
-    std::optional<double> horizonDof;            // ν_H of the H-day sum (student-t, aggregate scaling)
-    std::optional<Shape> horizonShape;           // S/√H, K/H (cornish-fisher, aggregate scaling)
     std::optional<bool> cornishFisherMonotone;
     std::optional<double> varStandardError;      // monte-carlo, money
     std::optional<double> esStandardError;       // monte-carlo, money
