@@ -10,6 +10,7 @@ TAILWISE_PACKAGES=(
   clang libclang-rt-14-dev
   poppler-utils python3-numpy python3-scipy
   python3-pandas libopenblas-dev libfast-float-dev
+  libcli11-dev
 )
 
 tailwise_install_packages() {

@@ -2,6 +2,8 @@
 // Exit status: 0 success, 1 bad input data, 2 bad usage.
 #include "backtestcommand.h"
 #include "reportprint.h"
+#include "exitstatus.h"
+#include "optiongroups.h"
 #include "varextras.h"
 #include "varoptions.h"
 #include "workbookinput.h"
@@ -21,9 +23,11 @@
 
 namespace {
 
-constexpr int exitOk = 0;
-constexpr int exitBadInput = 1;
-constexpr int exitUsage = 2;
+using tailwise::cli::exitBadInput;
+using tailwise::cli::exitOk;
+using tailwise::cli::exitUsage;
+using tailwise::cli::fail;
+using tailwise::cli::messageFor;
 
 const char *topHelp = R"(tailwise-cli: Value-at-Risk and Expected Shortfall from the command line
 
@@ -39,20 +43,6 @@ Usage:
   tailwise-cli --version
 )";
 
-int fail(int code, const std::string &message)
-{
-    std::fprintf(stderr, "tailwise-cli: %s\n", message.c_str());
-    return code;
-}
-
-std::string messageFor(const tailwise::Error &error)
-{
-    // A core error about an assumption names the field; say it as the option the user typed.
-    if (!error.field.empty() && error.message.rfind(error.field + ": ", 0) == 0)
-        return tailwise::cli::optionForField(error.field) + error.message.substr(error.field.size());
-    return error.message;
-}
-
 int runVar(const std::vector<std::string> &args)
 {
     using namespace tailwise;
@@ -60,24 +50,28 @@ int runVar(const std::vector<std::string> &args)
     auto msSinceStart = [&] {
         return std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - started).count();
     };
-    // A workbook's stored assumptions are the starting point; the options given override them.
+    // The options are checked first (a usage error before any file is read); with a workbook,
+    // its stored assumptions are the starting point and the options given override them.
+    auto request = cli::parseVarOptions(args);
+    if (!request)
+        return fail(exitUsage, request.error().message);
+    if (request.value().help) {
+        std::fputs(cli::varHelpText().c_str(), stdout);
+        return exitOk;
+    }
     std::optional<ui::WorkbookContents> workbook;
-    if (const auto path = cli::workbookOption(args)) {
-        auto loaded = cli::readWorkbookInput(*path);
+    if (!request.value().workbookPath.empty()) {
+        auto loaded = cli::readWorkbookInput(request.value().workbookPath);
         if (!loaded)
             return fail(exitBadInput, loaded.error().message);
         workbook = std::move(loaded).value();
         for (const auto &w : workbook->warnings) // e.g. assumptions the file lacks took defaults
             std::fprintf(stderr, "tailwise-cli: warning: %s\n", w.c_str());
+        request = cli::parseVarOptions(args, workbook->assumptions, true);
+        if (!request)
+            return fail(exitUsage, request.error().message);
     }
-    auto request = cli::parseVarOptions(args, workbook ? workbook->assumptions : Assumptions{});
-    if (!request)
-        return fail(exitUsage, request.error().message);
     const auto &req = request.value();
-    if (req.help) {
-        std::fputs(cli::varHelpText().c_str(), stdout);
-        return exitOk;
-    }
     Result<RiskReport> report = Error{};
     Result<cli::ReportExtras> extras = cli::ReportExtras{};
     cli::RunTimings timings;
