@@ -3,6 +3,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "gridprint.h"
 #include "modelprint.h"
 #include "numbertext.h"
 
@@ -142,6 +143,8 @@ std::string reportText(const RiskReport &r, bool single, const ReportExtras &ext
                    + pad(money(h->standaloneVar), 16, true) + "\n";
         }
     }
+    if (extras.grid)
+        out += gridText(r, *extras.grid);
     out += extrasText(extras);
     if (!r.warnings.empty()) {
         out += "\nWarnings\n";
@@ -216,6 +219,8 @@ std::string reportJson(const RiskReport &r, bool single, const ReportExtras &ext
         j.endObject();
     }
     j.endArray();
+    if (extras.grid)
+        writeGridJson(j, r, *extras.grid);
     writeExtrasJson(j, extras);
     if (timings) {
         j.key("timings_ms").beginObject();
