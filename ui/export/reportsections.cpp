@@ -7,6 +7,7 @@
 #include "panels/headlinepanel.h"
 #include "panels/localnumbers.h"
 
+#include "tailwise/modelgrid.h"
 #include "tailwise/grid.h"
 
 #include <QCoreApplication>
