@@ -194,7 +194,7 @@ namespace {
 // The model the figures follow, in words.
 QString figuresModelName(const Workbook &workbook)
 {
-    const auto &report = workbook.report();
+    const auto &report = workbook.results().report();
     switch (report ? report->model.used : workbook.assumptions().model) {
     case RiskModel::Normal: return HoldingsModel::tr("normal");
     case RiskModel::StudentT: return HoldingsModel::tr("Student-t");
