@@ -155,7 +155,13 @@ void MainWindow::buildLayout()
     layout->setContentsMargins(6, 6, 6, 0);
     layout->setSpacing(4);
     layout->addWidget(m_sideSplitter, 1);
-    layout->addWidget(new CautionsNote);
+    auto *cautions = new CautionsNote;
+    cautions->setConfidence(m_workbook->assumptions().confidence);
+    connect(m_workbook, &Workbook::assumptionsChanged, cautions,
+            [this, cautions] { cautions->setConfidence(m_workbook->assumptions().confidence); });
+    connect(m_workbook, &Workbook::contentsReset, cautions,
+            [this, cautions] { cautions->setConfidence(m_workbook->assumptions().confidence); });
+    layout->addWidget(cautions);
     setCentralWidget(central);
 
     m_progress = new QWidget;
@@ -417,7 +423,7 @@ void MainWindow::showAbout()
                        tr("<h3>Tailwise %1</h3><p>A workbench for Value-at-Risk and Expected Shortfall of portfolios "
                           "from daily price histories.</p>")
                                .arg(QApplication::applicationVersion())
-                           + cautionsFullText());
+                           + cautionsFullText(m_workbook->assumptions().confidence));
 }
 
 void MainWindow::addRecentFile(const QString &path)

@@ -11,6 +11,9 @@
 #include "pdfreportcommand.h"
 #include "rendercommand.h"
 
+#include "gridprint.h"
+
+#include "tailwise/modelgrid.h"
 #include "tailwise/holdings.h"
 #include "tailwise/prices.h"
 #include "tailwise/risk.h"
@@ -110,6 +113,12 @@ int runVar(const std::vector<std::string> &args)
         return fail(exitBadInput, messageFor(extras.error()));
     if (workbook)
         extras.value().currency = workbook->currency.toStdString();
+    if (req.grid) {
+        auto grid = modelRiskGrid(report.value(), cli::gridHorizons(report.value()), cli::gridConfidences(report.value()));
+        if (!grid)
+            return fail(exitBadInput, messageFor(grid.error()));
+        extras.value().grid = std::move(grid).value();
+    }
     const bool single = req.single.has_value();
     std::optional<cli::RunTimings> shownTimings;
     if (req.timings)

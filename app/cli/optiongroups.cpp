@@ -396,6 +396,10 @@ void declareOutputOptions(CommandLine &line, OutputOptions &o, Command command)
         line.flag("--timings", o.timings,
                   "add the wall time of each stage in ms (JSON: \"timings_ms\" with load,\n"
                   "estimate, risk and, for monte-carlo, simulate)");
+    if (command == Command::Var)
+        line.flag("--grid", o.grid,
+                  "also VaR and ES over horizons (1, 5, 10, 21, 63, 252 days) x confidences\n"
+                  "(95% to 99.5%), every cell under the chosen model (JSON: \"grid\")");
     if (command == Command::Backtest)
         line.flag("--series", o.series, "also every tested day: date, P&L, VaR, exception");
     line.flag("--help", o.help, "this text");

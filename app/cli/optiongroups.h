@@ -70,6 +70,7 @@ Status applyWhatIfOptions(const WhatIfOptions &options, ModelRequest &request);
 struct OutputOptions {
     bool json = false;
     bool timings = false; // var
+    bool grid = false;    // var
     bool series = false;  // backtest
     bool help = false;
 };

@@ -1,5 +1,9 @@
 #include "reportprint.h"
 
+#include <cmath>
+#include <cstdio>
+
+#include "gridprint.h"
 #include "modelprint.h"
 #include "numbertext.h"
 
@@ -43,6 +47,38 @@ std::string methodWords(const RiskReport &r)
     return s;
 }
 
+std::string modelName(RiskModel model)
+{
+    switch (model) {
+    case RiskModel::Normal: return "normal";
+    case RiskModel::StudentT: return "Student-t";
+    case RiskModel::CornishFisher: return "Cornish-Fisher";
+    case RiskModel::Historical: return "historical";
+    case RiskModel::MonteCarlo: return "Monte Carlo";
+    }
+    return "normal";
+}
+
+std::string contributionMethodWords(RiskModel model)
+{
+    switch (model) {
+    case RiskModel::Normal:
+    case RiskModel::StudentT: return "Euler allocation";
+    case RiskModel::CornishFisher: return "Euler allocation with the skewness and kurtosis derivatives";
+    case RiskModel::Historical: return "kernel estimate at the VaR, tail means for ES";
+    case RiskModel::MonteCarlo: return "kernel estimate at the VaR over the draws, tail means for ES";
+    }
+    return "Euler allocation";
+}
+
+std::string onceInWords(double confidence)
+{
+    const double n = std::round(1.0 / (1.0 - confidence));
+    char buffer[64];
+    std::snprintf(buffer, sizeof buffer, "%.0f", n);
+    return "once in " + std::string(buffer) + " horizons at " + confidenceText(confidence);
+}
+
 } // namespace
 
 std::string reportText(const RiskReport &r, bool single, const ReportExtras &extras,
@@ -74,7 +110,11 @@ std::string reportText(const RiskReport &r, bool single, const ReportExtras &ext
     out += "Horizon P&L s.d.    " + pad(money(r.horizon.sd), 16, true) + unit + "\n";
     if (!single) {
         out += "Undiversified VaR   " + pad(money(r.undiversifiedVar), 16, true) + unit + "   (sum of the holdings' own VaR)\n";
-        out += "Diversification     " + pad(money(r.diversificationBenefit), 16, true) + unit + "   (undiversified minus portfolio VaR)\n";
+        out += "Diversification     " + pad(money(r.diversificationBenefit), 16, true) + unit
+               + "   (undiversified minus portfolio VaR, both " + modelName(r.model.used) + ")\n";
+        if (r.diversificationBenefit < 0.0)
+            out += "                    negative: under this model VaR is not subadditive here - the portfolio's VaR\n"
+                   "                    is larger than the sum of the holdings' own VaRs\n";
     }
     out += "\nIn words: over " + horizonWords(a.horizonDays) + ", the loss is not expected to exceed "
            + money(r.figures.var) + unit + " with " + confidenceText(a.confidence)
@@ -82,10 +122,8 @@ std::string reportText(const RiskReport &r, bool single, const ReportExtras &ext
            + money(r.figures.es) + unit + ".\n";
 
     if (!single && !r.holdings.empty()) {
-        out += r.model.used == RiskModel::Normal
-                   ? "\nContributions (Euler allocation; the components add up to the portfolio VaR)\n"
-                   : "\nContributions (normal-model Euler allocation, for comparison: they add up to the normal VaR, "
-                     "not to the " + std::string(toName(r.model.used)) + " VaR above)\n";
+        out += "\nContributions under the " + modelName(r.model.contributions) + " model ("
+               + contributionMethodWords(r.model.contributions) + "; the components add up to the portfolio VaR)\n";
         std::size_t nameWidth = 5;
         for (const auto &h : r.holdings)
             nameWidth = std::max(nameWidth, h.asset.size());
@@ -105,14 +143,16 @@ std::string reportText(const RiskReport &r, bool single, const ReportExtras &ext
                    + pad(money(h->standaloneVar), 16, true) + "\n";
         }
     }
+    if (extras.grid)
+        out += gridText(r, *extras.grid);
     out += extrasText(extras);
     if (!r.warnings.empty()) {
         out += "\nWarnings\n";
         for (const auto &w : r.warnings)
             out += "  - " + w + "\n";
     }
-    out += "\nCautions: VaR is not the worst case - losses beyond it happen, on about "
-           + confidenceText(1.0 - a.confidence) + " of horizons if the model holds. " + modelCaution(r.model.used)
+    out += "\nCautions: VaR is not the worst case - losses beyond it happen, about " + onceInWords(a.confidence)
+           + " if the model holds. " + modelCaution(r.model.used)
            + " Figures are estimates from past data under the model's assumptions, for information only and not "
            "advice; regulatory use follows local rules and approved models.\n";
     if (timings) {
@@ -179,6 +219,8 @@ std::string reportJson(const RiskReport &r, bool single, const ReportExtras &ext
         j.endObject();
     }
     j.endArray();
+    if (extras.grid)
+        writeGridJson(j, r, *extras.grid);
     writeExtrasJson(j, extras);
     if (timings) {
         j.key("timings_ms").beginObject();

@@ -4,6 +4,7 @@
 
 #include "modeloptions.h"
 
+#include "tailwise/grid.h"
 #include "tailwise/holdings.h"
 #include "tailwise/prices.h"
 #include "tailwise/stress.h"
@@ -19,6 +20,7 @@ struct ReportExtras {
     std::optional<WhatIf> whatIf;
     std::optional<std::vector<StressOutcome>> stress;
     std::string currency; // the workbook's currency code (e.g. "EUR"); empty: not stated
+    std::optional<RiskGrid> grid; // --grid: horizons × confidences under the chosen model
 };
 
 // Reads the scenario files and runs the what-if and the stress. Errors: a scenario file's error

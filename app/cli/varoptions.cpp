@@ -71,6 +71,7 @@ Result<VarRequest> parseVarOptions(const std::vector<std::string> &args, const A
     }
     request.json = o.output.json;
     request.timings = o.output.timings;
+    request.grid = o.output.grid;
     request.pricesPath = o.inputs.prices;
     request.holdingsPath = o.inputs.holdings;
     request.workbookPath = o.inputs.workbook;

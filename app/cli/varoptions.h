@@ -23,6 +23,7 @@ struct VarRequest {
     ModelRequest models; // --trade, --scenario, --worst-days
     bool json = false;
     bool timings = false; // --timings: wall time of each stage in the output
+    bool grid = false;    // --grid: the horizon × confidence grid under the chosen model
     bool help = false;
 };
 

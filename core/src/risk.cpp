@@ -2,6 +2,7 @@
 
 #include "tailwise/finitecheck.h"
 
+#include "tailwise/allocation.h"
 #include "tailwise/cornishfisher.h"
 #include "tailwise/estimate.h"
 #include "tailwise/guard.h"
@@ -45,9 +46,6 @@ void fillFigures(RiskReport &report, const Eigen::VectorXd &exposures, const Eig
     if (report.oneDay.sd == 0.0)
         report.warnings.push_back("the portfolio's P&L has zero variance over the window: VaR reflects the mean only");
 
-    const Contributions c = normalContributions(exposures, cov, mean, a.horizonDays, a.confidence);
-    report.undiversifiedVar = c.undiversifiedVar;
-    report.diversificationBenefit = c.diversificationBenefit;
     for (std::size_t i = 0; i < report.holdings.size(); ++i) {
         auto &hr = report.holdings[i];
         const auto k = static_cast<Eigen::Index>(i);
@@ -55,14 +53,28 @@ void fillFigures(RiskReport &report, const Eigen::VectorXd &exposures, const Eig
         if (report.portfolioValue != 0.0)
             hr.weight = exposures(k) / report.portfolioValue;
         hr.dailyVolatility = std::sqrt(std::max(0.0, cov(k, k)));
+    }
+}
+
+// The allocation of the model that gave the figures (allocation.h), into the holdings' rows.
+void storeAllocation(RiskReport &report, const Allocation &c)
+{
+    report.undiversifiedVar = c.undiversifiedVar;
+    report.diversificationBenefit = c.diversificationBenefit;
+    report.model.contributions = report.model.used;
+    for (std::size_t i = 0; i < report.holdings.size(); ++i) {
+        auto &hr = report.holdings[i];
+        const auto k = static_cast<Eigen::Index>(i);
         hr.marginalVar = c.marginalVar(k);
         hr.componentVar = c.componentVar(k);
+        hr.componentShare.reset();
         if (report.figures.var != 0.0)
             hr.componentShare = c.componentVar(k) / report.figures.var;
         hr.componentEs = c.componentEs(k);
         hr.standaloneVar = c.standaloneVar(k);
         hr.standaloneEs = c.standaloneEs(k);
     }
+    report.warnings.insert(report.warnings.end(), c.warnings.begin(), c.warnings.end());
 }
 
 // Figures the model gives but the user should not take at face value (common practice; each one a
@@ -149,12 +161,54 @@ Error needsHistory(RiskModel model)
                       "single-position mode does not have");
 }
 
-// Replaces the normal figures of `report` with those of the chosen model.
+// The inputs every allocation shares: Σe, σ_p (daily) and the holdings' own daily sd.
+struct AllocationInputs {
+    Eigen::VectorXd sigmaE;
+    double sigmaP = 0.0;
+    Eigen::VectorXd sd;
+};
+
+AllocationInputs allocationInputs(const RiskReport &report)
+{
+    AllocationInputs in;
+    in.sigmaE = report.moments.covariance * report.exposures;
+    in.sigmaP = report.oneDay.sd;
+    in.sd = report.moments.covariance.diagonal().cwiseMax(0.0).cwiseSqrt();
+    return in;
+}
+
+// The multi-day convention of the Student-t and Cornish–Fisher figures (multidayscaling.h). The
+// assumptions offer square-root scaling only; the aggregate path is the allocation's and the grid's.
+MultiDayScaling scalingOf(const Assumptions &) { return MultiDayScaling::SquareRoot; }
+
+// ν for the horizon under the scaling convention (multidayscaling.h), with a warning when it
+// cannot be aggregated.
+double horizonDof(RiskReport &report, double nu)
+{
+    const auto &a = report.assumptions;
+    if (scalingOf(a) != MultiDayScaling::Aggregate || a.horizonDays == 1)
+        return nu;
+    if (!(nu > 4.0))
+        report.warnings.push_back("the Student-t with " + std::to_string(nu)
+                                  + " degrees of freedom has no finite kurtosis (ν ≤ 4), so the " + std::to_string(a.horizonDays)
+                                  + "-day sum's ν cannot be found from it: ν is kept unchanged");
+    return aggregateDof(nu, a.horizonDays);
+}
+
+// Replaces the normal figures of `report` with those of the chosen model, and allocates them to
+// the holdings under the same model (allocation.h).
 Status applyModel(RiskReport &report, const RunControl &control)
 {
     const auto &a = report.assumptions;
     report.model = ModelDetails{};
     const bool haveHistory = report.windowReturnsMatrix.rows() > 0;
+    const AllocationInputs in = allocationInputs(report);
+    const Eigen::VectorXd &e = report.exposures;
+    const Eigen::VectorXd &mean = report.moments.mean;
+    auto normalAllocation = [&] {
+        return ellipticalAllocation(e, in.sigmaE, in.sigmaP, in.sd, mean, a.horizonDays, normalQuantile(a.confidence),
+                                    normalTailMeanFactor(a.confidence));
+    };
     switch (a.model) {
     case RiskModel::Normal:
         break;
@@ -166,8 +220,12 @@ Status applyModel(RiskReport &report, const RunControl &control)
             break;
         report.model.used = RiskModel::StudentT;
         report.model.dof = nu;
-        report.figures = studentTVarEs(report.horizon, *nu, a.confidence);
-        break;
+        const double nuH = horizonDof(report, *nu);
+        report.figures = studentTVarEs(report.horizon, nuH, a.confidence);
+        Allocation c = ellipticalAllocation(e, in.sigmaE, in.sigmaP, in.sd, mean, a.horizonDays,
+                                            studentTVarFactor(nuH, a.confidence), studentTEsFactor(nuH, a.confidence));
+        storeAllocation(report, c);
+        return Done{};
     }
     case RiskModel::CornishFisher: {
         if (!haveHistory)
@@ -177,14 +235,18 @@ Status applyModel(RiskReport &report, const RunControl &control)
             break;
         report.model.used = RiskModel::CornishFisher;
         report.model.shape = shape;
-        const CornishFisherFactors f = cornishFisherFactors(a.confidence, *shape);
+        const Shape used = scaledShape(*shape, a.horizonDays, scalingOf(a));
+        const CornishFisherFactors f = cornishFisherFactors(a.confidence, used);
         report.model.cornishFisherMonotone = f.monotone;
         report.figures = VarEs{f.var * report.horizon.sd - report.horizon.mean, f.es * report.horizon.sd - report.horizon.mean};
         if (!f.monotone)
-            report.warnings.push_back("the Cornish-Fisher expansion is not monotone for skewness " + std::to_string(shape->skewness)
-                                      + " and excess kurtosis " + std::to_string(shape->excessKurtosis)
+            report.warnings.push_back("the Cornish-Fisher expansion is not monotone for skewness " + std::to_string(used.skewness)
+                                      + " and excess kurtosis " + std::to_string(used.excessKurtosis)
                                       + ": it is no longer a quantile function, and its VaR and ES are unreliable");
-        break;
+        Allocation c = cornishFisherAllocation(e, in.sigmaE, in.sigmaP, in.sd, mean, report.windowReturnsMatrix,
+                                               a.horizonDays, a.confidence, scalingOf(a));
+        storeAllocation(report, c);
+        return Done{};
     }
     case RiskModel::Historical: {
         if (!haveHistory)
@@ -195,12 +257,20 @@ Status applyModel(RiskReport &report, const RunControl &control)
             return hs.error();
         report.model.used = RiskModel::Historical;
         report.model.scenarios = hs.value().scenarios;
-        report.figures = hs.value().figures;
         appendWarnings(report, hs.value().warnings);
-        break;
+        // The figures from the scenario matrix, so that the components add up to them exactly.
+        const bool overlapping = a.historicalHorizon == HistoricalHorizon::Overlapping && a.horizonDays > 1;
+        const Eigen::MatrixXd scenarios = historicalScenarioPnl(report.windowReturnsMatrix, e, a.horizonDays,
+                                                                a.historicalHorizon);
+        Allocation c = scenarioAllocation(scenarios, a.confidence,
+                                          overlapping ? 1.0 : std::sqrt(static_cast<double>(a.horizonDays)));
+        finishAllocation(c, e);
+        report.figures = c.total;
+        storeAllocation(report, c);
+        return Done{};
     }
     case RiskModel::MonteCarlo: {
-        SimulationSettings settings{a.simulations, a.seed, std::nullopt};
+        SimulationSettings settings{a.simulations, a.seed, std::nullopt, true};
         if (a.dof.kind != DegreesOfFreedom::Kind::Unset) {
             if (!haveHistory && a.dof.kind == DegreesOfFreedom::Kind::Fit)
                 return needsHistory(a.model);
@@ -222,9 +292,12 @@ Status applyModel(RiskReport &report, const RunControl &control)
         report.model.standardErrorMethod = mc.value().standardErrorMethod;
         report.figures = mc.value().figures;
         appendWarnings(report, mc.value().warnings);
-        break;
+        storeAllocation(report, *mc.value().allocation);
+        return Done{};
     }
     }
+    // Normal, or a fallback to it.
+    storeAllocation(report, normalAllocation());
     return Done{};
 }
 

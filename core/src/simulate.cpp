@@ -1,5 +1,6 @@
 #include "tailwise/simulate.h"
 
+#include "tailwise/allocation.h"
 #include "tailwise/historical.h"
 #include "tailwise/studentt.h"
 
@@ -158,15 +159,100 @@ private:
     const Ziggurat &m_zig;
 };
 
-// Lᵀe for Σ = L Lᵀ; the eigen factor V D^{1/2} when Σ is only semi-definite.
-Eigen::VectorXd factorTimesExposures(const Eigen::MatrixXd &cov, const Eigen::VectorXd &e)
+// The factor F with Σ = F Fᵀ: Cholesky's L, or V D^{1/2} of the eigen-decomposition when Σ is
+// only semi-definite. b = Fᵀe (computed as U e with U = Lᵀ, as before).
+struct Factor {
+    Eigen::MatrixXd f;
+    Eigen::VectorXd b;
+};
+
+Factor factorOf(const Eigen::MatrixXd &cov, const Eigen::VectorXd &e, bool wantMatrix)
 {
+    Factor out;
     const Eigen::LLT<Eigen::MatrixXd> llt(cov);
-    if (llt.info() == Eigen::Success)
-        return llt.matrixU() * e; // U = Lᵀ
+    if (llt.info() == Eigen::Success) {
+        out.b = llt.matrixU() * e; // U = Lᵀ
+        if (wantMatrix)
+            out.f = llt.matrixL();
+        return out;
+    }
     const Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> eig(cov);
-    const Eigen::MatrixXd factor = eig.eigenvectors() * eig.eigenvalues().cwiseMax(0.0).cwiseSqrt().asDiagonal();
-    return factor.transpose() * e;
+    out.f = eig.eigenvectors() * eig.eigenvalues().cwiseMax(0.0).cwiseSqrt().asDiagonal();
+    out.b = out.f.transpose() * e;
+    return out;
+}
+
+// Runs `perBlock(block)` for every block on the threads; progress from `from` to `to`.
+// Returns false when stopped.
+template <class PerBlock>
+bool runBlocks(int blocks, const RunControl &control, double from, double to, PerBlock perBlock)
+{
+    std::atomic<int> nextBlock{0};
+    std::atomic<int> doneBlocks{0};
+    std::atomic<bool> stopped{false};
+    auto worker = [&](bool reportsProgress) {
+        for (;;) {
+            if (stopped || control.stop.stop_requested()) {
+                stopped = true;
+                return;
+            }
+            const int block = nextBlock.fetch_add(1);
+            if (block >= blocks)
+                return;
+            if (!perBlock(block)) {
+                stopped = true;
+                return;
+            }
+            const int done = doneBlocks.fetch_add(1) + 1;
+            if (reportsProgress && control.progress)
+                control.progress(from + (to - from) * static_cast<double>(done) / blocks);
+        }
+    };
+    int threads = control.threads > 0 ? control.threads : static_cast<int>(std::thread::hardware_concurrency());
+    threads = std::clamp(threads, 1, std::max(blocks, 1));
+    {
+        std::vector<std::jthread> pool;
+        for (int t = 1; t < threads; ++t)
+            pool.emplace_back([&] { worker(false); });
+        worker(true);
+    } // jthreads join here
+    return !stopped;
+}
+
+// One draw's standard vector z (into `z`) and its t mixing factor g (1 for normal draws).
+double drawOne(BlockStream &stream, Eigen::VectorXd &z, bool useT, double nu, double tScale)
+{
+    for (Eigen::Index i = 0; i < z.size(); ++i)
+        z(i) = stream.normal();
+    return useT ? tScale / std::sqrt(stream.chiSquare(nu) / nu) : 1.0;
+}
+
+// The standard draws y_k = g_k bᵀz_k. Normals are drawn in the same order as drawOne.
+bool standardDraws(const Eigen::VectorXd &b, int n, const SimulationSettings &settings, const RunControl &control,
+                   double progressTo, std::vector<double> &ys)
+{
+    const int blocks = (n + simulationBlockSize - 1) / simulationBlockSize;
+    const Eigen::Index dim = b.size();
+    const bool useT = settings.dof.has_value();
+    const double nu = settings.dof.value_or(0.0);
+    const double tScale = useT ? studentTScale(nu) : 1.0;
+    ys.assign(static_cast<std::size_t>(n), 0.0);
+    return runBlocks(blocks, control, 0.0, progressTo, [&](int block) {
+        BlockStream stream(blockSeed(settings.seed, static_cast<std::uint64_t>(block)));
+        const int first = block * simulationBlockSize;
+        const int last = std::min(n, first + simulationBlockSize);
+        for (int k = first; k < last; ++k) {
+            if (((k - first) & 1023) == 0 && control.stop.stop_requested())
+                return false;
+            double y = 0.0;
+            for (Eigen::Index i = 0; i < dim; ++i)
+                y += b(i) * stream.normal();
+            if (useT)
+                y *= tScale / std::sqrt(stream.chiSquare(nu) / nu);
+            ys[static_cast<std::size_t>(k)] = y;
+        }
+        return true;
+    });
 }
 
 // VaR and ES of losses by the type 7 quantile, with nth_element instead of a full sort.
@@ -212,6 +298,126 @@ std::uint64_t blockSeed(std::uint64_t seed, std::uint64_t block)
     return splitMix64(splitMix64(seed) ^ block);
 }
 
+namespace {
+
+// The second pass of simulateVarEs with allocate (simulate.h): kernel and tail sums of g_k z_k,
+// per block then added in block order (so the figures do not depend on the thread count).
+Result<Allocation> allocateDraws(const Eigen::VectorXd &e, const Eigen::MatrixXd &cov, const Eigen::VectorXd &mean,
+                                 int horizonDays, double confidence, const SimulationSettings &settings,
+                                 const RunControl &control, const Factor &factor, const std::vector<double> &losses,
+                                 VarEs figures)
+{
+    const int n = static_cast<int>(losses.size());
+    const int blocks = (n + simulationBlockSize - 1) / simulationBlockSize;
+    const Eigen::Index dim = factor.b.size();
+    const bool useT = settings.dof.has_value();
+    const double nu = settings.dof.value_or(0.0);
+    const double tScale = useT ? studentTScale(nu) : 1.0;
+    const double h = static_cast<double>(horizonDays);
+    const double rootH = std::sqrt(h);
+    const Eigen::VectorXd lossVector = Eigen::Map<const Eigen::VectorXd>(losses.data(), n);
+    const double bandwidth = silvermanBandwidth(lossVector);
+    const double var = figures.var;
+
+    struct Sums {
+        Eigen::VectorXd kernel, tail;
+        double weight = 0.0, weightedLoss = 0.0;
+        int tailCount = 0;
+    };
+    std::vector<Sums> perBlock(static_cast<std::size_t>(blocks));
+    const bool ok = runBlocks(blocks, control, 0.5, 0.95, [&](int block) {
+        Sums &acc = perBlock[static_cast<std::size_t>(block)];
+        acc.kernel = Eigen::VectorXd::Zero(dim);
+        acc.tail = Eigen::VectorXd::Zero(dim);
+        BlockStream stream(blockSeed(settings.seed, static_cast<std::uint64_t>(block)));
+        Eigen::VectorXd z(dim);
+        const int first = block * simulationBlockSize;
+        const int last = std::min(n, first + simulationBlockSize);
+        for (int k = first; k < last; ++k) {
+            if (((k - first) & 1023) == 0 && control.stop.stop_requested())
+                return false;
+            const double g = drawOne(stream, z, useT, nu, tScale);
+            const double loss = losses[static_cast<std::size_t>(k)];
+            if (bandwidth > 0.0) {
+                const double u = (loss - var) / bandwidth;
+                const double w = std::exp(-0.5 * u * u) / std::sqrt(2.0 * std::numbers::pi);
+                acc.kernel += (w * g) * z;
+                acc.weight += w;
+                acc.weightedLoss += w * loss;
+            }
+            if (loss >= var) {
+                acc.tail += g * z;
+                ++acc.tailCount;
+            }
+        }
+        return true;
+    });
+    if (!ok)
+        return fieldError(ErrorKind::Cancelled, "simulations", "the simulation was cancelled");
+    Sums total;
+    total.kernel = Eigen::VectorXd::Zero(dim);
+    total.tail = Eigen::VectorXd::Zero(dim);
+    for (const Sums &s : perBlock) {
+        total.kernel += s.kernel;
+        total.tail += s.tail;
+        total.weight += s.weight;
+        total.weightedLoss += s.weightedLoss;
+        total.tailCount += s.tailCount;
+    }
+    const Eigen::VectorXd drift = h * mean.cwiseProduct(e);
+    Allocation a;
+    a.total = figures;
+    // Tail: −Σ_{tail} P_{k,i} / count = −(e_i H μ_i + √H e_i (F tail)_i / count).
+    a.componentEs = -(drift + rootH * e.cwiseProduct(factor.f * total.tail) / static_cast<double>(total.tailCount));
+    if (bandwidth > 0.0 && total.weightedLoss != 0.0 && std::isfinite(total.weightedLoss)) {
+        const Eigen::VectorXd weightedPnl = drift * total.weight + rootH * e.cwiseProduct(factor.f * total.kernel);
+        a.componentVar = var * (-weightedPnl) / total.weightedLoss;
+    } else {
+        a.componentVar = figures.es != 0.0 ? Eigen::VectorXd(a.componentEs * (var / figures.es)) : Eigen::VectorXd::Zero(e.size());
+        a.warnings.push_back("the simulated losses have no spread around the VaR, so the kernel estimate of each "
+                             "holding's part of VaR is not defined: VaR is split in proportion to the holdings' parts of ES");
+    }
+    // Standalone: a unit one-asset book, long and short, with the same seed.
+    SimulationSettings unitSettings = settings;
+    unitSettings.allocate = false;
+    const Eigen::MatrixXd one = Eigen::MatrixXd::Ones(1, 1);
+    const Eigen::VectorXd zero = Eigen::VectorXd::Zero(1);
+    RunControl quiet;
+    quiet.stop = control.stop;
+    quiet.threads = control.threads;
+    auto longUnit = simulateVarEs(Eigen::VectorXd::Ones(1), one, zero, horizonDays, confidence, unitSettings, quiet);
+    if (!longUnit)
+        return longUnit.error();
+    auto shortUnit = simulateVarEs(-Eigen::VectorXd::Ones(1), one, zero, horizonDays, confidence, unitSettings, quiet);
+    if (!shortUnit)
+        return shortUnit.error();
+    a.standaloneVar.resize(e.size());
+    a.standaloneEs.resize(e.size());
+    for (Eigen::Index i = 0; i < e.size(); ++i) {
+        const VarEs unit = e(i) >= 0.0 ? longUnit.value().figures : shortUnit.value().figures;
+        const double scale = std::abs(e(i)) * std::sqrt(std::max(0.0, cov(i, i)));
+        a.standaloneVar(i) = scale * unit.var - drift(i);
+        a.standaloneEs(i) = scale * unit.es - drift(i);
+    }
+    finishAllocation(a, e);
+    return a;
+}
+
+} // namespace
+
+Result<Eigen::VectorXd> simulateStandardPnl(const Eigen::VectorXd &e, const Eigen::MatrixXd &cov,
+                                            const SimulationSettings &settings, const RunControl &control)
+{
+    if (settings.simulations < 1000)
+        return fieldError(ErrorKind::Assumption, "simulations",
+                          "expected at least 1000 draws, found " + std::to_string(settings.simulations));
+    const Factor factor = factorOf(cov, e, false);
+    std::vector<double> ys;
+    if (!standardDraws(factor.b, settings.simulations, settings, control, 1.0, ys))
+        return fieldError(ErrorKind::Cancelled, "simulations", "the simulation was cancelled");
+    return Eigen::VectorXd(Eigen::Map<const Eigen::VectorXd>(ys.data(), static_cast<Eigen::Index>(ys.size())));
+}
+
 Result<SimulationFigures> simulateVarEs(const Eigen::VectorXd &e, const Eigen::MatrixXd &cov, const Eigen::VectorXd &mean,
                                         int horizonDays, double confidence, const SimulationSettings &settings,
                                         const RunControl &control)
@@ -226,60 +432,14 @@ Result<SimulationFigures> simulateVarEs(const Eigen::VectorXd &e, const Eigen::M
     const double h = static_cast<double>(horizonDays);
     const double rootH = std::sqrt(h);
     const double drift = h * e.dot(mean);
-    const Eigen::VectorXd b = factorTimesExposures(cov, e);
-    const Eigen::Index dim = b.size();
-    const bool useT = settings.dof.has_value();
-    const double nu = settings.dof.value_or(0.0);
-    const double tScale = useT ? studentTScale(nu) : 1.0;
+    const Factor factor = factorOf(cov, e, settings.allocate);
 
-    std::vector<double> losses(static_cast<std::size_t>(n));
-    std::atomic<int> nextBlock{0};
-    std::atomic<int> doneBlocks{0};
-    std::atomic<bool> stopped{false};
-
-    auto runBlock = [&](int block) {
-        BlockStream stream(blockSeed(settings.seed, static_cast<std::uint64_t>(block)));
-        const int first = block * simulationBlockSize;
-        const int last = std::min(n, first + simulationBlockSize);
-        for (int k = first; k < last; ++k) {
-            if (((k - first) & 1023) == 0 && control.stop.stop_requested()) {
-                stopped = true;
-                return;
-            }
-            double y = 0.0;
-            for (Eigen::Index i = 0; i < dim; ++i)
-                y += b(i) * stream.normal();
-            if (useT)
-                y *= tScale / std::sqrt(stream.chiSquare(nu) / nu);
-            losses[static_cast<std::size_t>(k)] = -(drift + rootH * y);
-        }
-    };
-    auto worker = [&](bool reportsProgress) {
-        for (;;) {
-            if (stopped || control.stop.stop_requested()) {
-                stopped = true;
-                return;
-            }
-            const int block = nextBlock.fetch_add(1);
-            if (block >= blocks)
-                return;
-            runBlock(block);
-            const int done = doneBlocks.fetch_add(1) + 1;
-            if (reportsProgress && control.progress)
-                control.progress(0.95 * static_cast<double>(done) / blocks);
-        }
-    };
-
-    int threads = control.threads > 0 ? control.threads : static_cast<int>(std::thread::hardware_concurrency());
-    threads = std::clamp(threads, 1, blocks);
-    {
-        std::vector<std::jthread> pool;
-        for (int t = 1; t < threads; ++t)
-            pool.emplace_back([&] { worker(false); });
-        worker(true);
-    } // jthreads join here
-    if (stopped)
+    std::vector<double> ys;
+    if (!standardDraws(factor.b, n, settings, control, settings.allocate ? 0.5 : 0.95, ys))
         return fieldError(ErrorKind::Cancelled, "simulations", "the simulation was cancelled");
+    std::vector<double> losses(static_cast<std::size_t>(n));
+    for (std::size_t k = 0; k < losses.size(); ++k)
+        losses[k] = -(drift + rootH * ys[k]);
 
     SimulationFigures out;
     out.simulations = n;
@@ -299,6 +459,13 @@ Result<SimulationFigures> simulateVarEs(const Eigen::VectorXd &e, const Eigen::M
     out.standardErrorMethod = "batch means: the sd of the VaR of " + std::to_string(simulationBatches)
                               + " equal batches of consecutive draws, divided by the square root of "
                               + std::to_string(simulationBatches);
+    if (settings.allocate) {
+        auto allocation = allocateDraws(e, cov, mean, horizonDays, confidence, settings, control, factor, losses,
+                                        out.figures);
+        if (!allocation)
+            return allocation.error();
+        out.allocation = std::move(allocation).value();
+    }
     if ((1.0 - confidence) * static_cast<double>(per) < 10.0)
         out.warnings.push_back("each of the " + std::to_string(simulationBatches) + " batches of "
                                + std::to_string(per) + " draws has fewer than 10 losses beyond the VaR: the standard "

@@ -57,6 +57,7 @@ private slots:
     void contoursThroughSaddlesAndGaps();
 
     void tradeoffEqualsNormalRiskGrid();
+    void tradeoffFollowsTheChosenModel();
     void tradeoffContoursLieOnVarLevels();
     void turningHorizonFormula();
     void tradeoffRidgeWithExpectedGain();
@@ -287,6 +288,28 @@ void TestChartData::tradeoffEqualsNormalRiskGrid()
         CHECK_CLOSE(d.mapTail[k + 1] - d.mapTail[k], d.mapTail[1] - d.mapTail[0], 1e-9);
     CHECK_CLOSE(d.mapTail.front(), 1.0, 1e-12);
     CHECK_CLOSE(d.mapTail.back(), 3.0, 1e-12);
+}
+
+// Under every model the horizon-and-confidence view is core's modelRiskGrid (grid.h), and the
+// current setting's marker lies on its curve: the line at 99% passes through the headline.
+void TestChartData::tradeoffFollowsTheChosenModel()
+{
+    for (RiskModel m : {RiskModel::StudentT, RiskModel::CornishFisher, RiskModel::Historical, RiskModel::MonteCarlo}) {
+        Assumptions a;
+        a.model = m;
+        a.horizonDays = 10;
+        a.simulations = 5000;
+        const RiskReport r = sampleReport(a);
+        QCOMPARE(r.model.used, m);
+        const TradeoffChartData d = buildTradeoffChartData(r);
+        QVERIFY(d.valid);
+        QVERIFY(d.note.contains(m == RiskModel::Historical ? QStringLiteral("historical") : QStringLiteral("model")));
+        const auto map = modelRiskGrid(r, d.map.horizons, d.map.confidences);
+        QVERIFY(map.ok());
+        QVERIFY(d.map.var == map.value().var);
+        QVERIFY(std::abs(d.byHorizon.varAt(9, 2) - r.figures.var) <= 1e-9 * r.figures.var);
+        QVERIFY(d.ridge.empty()); // the turning horizon is the normal model's
+    }
 }
 
 void TestChartData::tradeoffContoursLieOnVarLevels()

@@ -12,6 +12,17 @@ namespace tailwise::ui {
 namespace {
 QString tr(const char *text, int n = -1) { return QCoreApplication::translate("ContributionsChart", text, nullptr, n); }
 double finiteOr0(double v) { return std::isfinite(v) ? v : 0.0; }
+QString modelAdjective(RiskModel model)
+{
+    switch (model) {
+    case RiskModel::Normal: return tr("normal");
+    case RiskModel::StudentT: return tr("Student-t");
+    case RiskModel::CornishFisher: return tr("Cornish–Fisher");
+    case RiskModel::Historical: return tr("historical");
+    case RiskModel::MonteCarlo: return tr("Monte Carlo");
+    }
+    return tr("normal");
+}
 } // namespace
 
 ContributionsChartData buildContributionsChartData(const RiskReport &report, const ContributionsOptions &options)
@@ -56,13 +67,17 @@ ContributionsChartData buildContributionsChartData(const RiskReport &report, con
     d.hasHedges = std::any_of(d.bars.cbegin(), d.bars.cend(), [](const ContributionBar &b) { return b.hedge; });
 
     const QString conf = chartstyle::confidenceText(report.assumptions.confidence);
-    d.valueLabel = QCoreApplication::translate("ContributionsChart", "Contribution to %1 %n-day VaR (%2)", nullptr,
-                                               report.assumptions.horizonDays).arg(conf, chartstyle::moneyUnit(options.currency));
+    d.valueLabel = QCoreApplication::translate("ContributionsChart", "Contribution to %1 %n-day %3 VaR (%2)", nullptr,
+                                               report.assumptions.horizonDays)
+                       .arg(conf, chartstyle::moneyUnit(options.currency), modelAdjective(report.model.contributions));
     d.stepLabel = tr("VaR (%1)").arg(chartstyle::moneyUnit(options.currency));
-    d.benefitText = QCoreApplication::translate("ContributionsChart", "Diversification lowers VaR\nby %1, %2 of the\nsum of standalone VaRs")
-                        .arg(chartstyle::money(d.diversificationBenefit),
-                             d.undiversifiedVar != 0.0 ? chartstyle::percent(d.diversificationBenefit / d.undiversifiedVar, 1)
-                                                       : QStringLiteral("n/a"));
+    const QString share = d.undiversifiedVar != 0.0 ? chartstyle::percent(std::abs(d.diversificationBenefit) / d.undiversifiedVar, 1)
+                                                    : QStringLiteral("n/a");
+    d.benefitText = d.diversificationBenefit >= 0.0
+                        ? tr("Diversification lowers VaR\nby %1, %2 of the\nsum of standalone VaRs")
+                              .arg(chartstyle::money(d.diversificationBenefit), share)
+                        : tr("VaR is not subadditive here:\ntogether %1 more, %2 of the\nsum of standalone VaRs")
+                              .arg(chartstyle::money(-d.diversificationBenefit), share);
     return d;
 }
 

@@ -2,6 +2,8 @@
 
 #include "charts/chartstyle.h"
 
+#include "tailwise/modelgrid.h"
+
 #include <QCoreApplication>
 
 #include <algorithm>
@@ -12,6 +14,18 @@ namespace tailwise::ui {
 namespace {
 
 QString tr(const char *text) { return QCoreApplication::translate("TradeoffChart", text); }
+
+QString modelWords(RiskModel model)
+{
+    switch (model) {
+    case RiskModel::Normal: return tr("normal");
+    case RiskModel::StudentT: return tr("Student-t");
+    case RiskModel::CornishFisher: return tr("Cornish–Fisher");
+    case RiskModel::Historical: return tr("historical-simulation");
+    case RiskModel::MonteCarlo: return tr("Monte Carlo");
+    }
+    return tr("normal");
+}
 
 } // namespace
 
@@ -57,15 +71,19 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
         d.note = tr("No finite one-day P&L spread: nothing to draw.");
         return d;
     }
-    d.valid = true;
+    const RiskModel model = report.model.used;
+    // Which model every cell follows, then anything else to say.
+    d.note = tr("Every figure here is under the %1 model, as the headline.").arg(modelWords(model));
     if (oneDay.sd == 0.0)
-        d.note = tr("The P&L has no spread over this window: VaR is the expected loss alone at every confidence.");
+        d.note += QLatin1Char(' ')
+                + tr("The P&L has no spread over this window: VaR is the expected loss alone at every confidence.");
 
-    std::vector<int> horizons(static_cast<std::size_t>(d.daysPerYear));
-    for (int h = 1; h <= d.daysPerYear; ++h)
+    int lastHorizon = d.daysPerYear;
+    if (model == RiskModel::Historical && a.historicalHorizon == HistoricalHorizon::Overlapping)
+        lastHorizon = std::max(1, std::min(lastHorizon, report.windowReturns - 1));
+    std::vector<int> horizons(static_cast<std::size_t>(lastHorizon));
+    for (int h = 1; h <= lastHorizon; ++h)
         horizons[static_cast<std::size_t>(h - 1)] = h;
-
-    d.byHorizon = normalRiskGrid(oneDay, horizons, options.lineConfidences);
 
     const int steps = std::max(2, options.confidenceSteps);
     const double t0 = confidenceToTailScale(options.minConfidence);
@@ -78,8 +96,46 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
         // The ends are set exactly, so the range reads 90% … 99.9% and not 99.899999…%.
         confidences.push_back(k == 0 ? options.minConfidence : k == steps - 1 ? options.maxConfidence : tailScaleToConfidence(t));
     }
-    d.byConfidence = normalRiskGrid(oneDay, {d.horizonDays}, confidences);
-    d.map = normalRiskGrid(oneDay, horizons, confidences);
+
+    // One grid over every horizon and every confidence the three pictures need (so Monte Carlo
+    // draws once), then each picture is a slice of it: a cell depends on its (H, C) alone.
+    std::vector<double> allConfidences = confidences;
+    allConfidences.insert(allConfidences.end(), options.lineConfidences.begin(), options.lineConfidences.end());
+    std::vector<int> allHorizons = horizons;
+    const bool currentInside = d.horizonDays >= 1 && d.horizonDays <= lastHorizon;
+    if (!currentInside)
+        allHorizons.push_back(d.horizonDays);
+    auto all = modelRiskGrid(report, allHorizons, allConfidences);
+    bool finite = all.ok();
+    if (finite)
+        for (std::size_t k = 0; k < all.value().var.size(); ++k)
+            finite = finite && std::isfinite(all.value().var[k]) && std::isfinite(all.value().es[k]);
+    if (!finite) {
+        d.note += QLatin1Char(' ') + tr("It gives no figures across horizons and confidences here.");
+        return d;
+    }
+    const RiskGrid &g = all.value();
+    auto slice = [&](const std::vector<std::size_t> &rows, std::size_t firstColumn, std::size_t columns) {
+        RiskGrid out;
+        for (std::size_t row : rows)
+            out.horizons.push_back(g.horizons[row]);
+        out.confidences.assign(g.confidences.begin() + static_cast<std::ptrdiff_t>(firstColumn),
+                               g.confidences.begin() + static_cast<std::ptrdiff_t>(firstColumn + columns));
+        for (std::size_t row : rows)
+            for (std::size_t c = firstColumn; c < firstColumn + columns; ++c) {
+                out.var.push_back(g.varAt(row, c));
+                out.es.push_back(g.esAt(row, c));
+            }
+        return out;
+    };
+    std::vector<std::size_t> horizonRows(horizons.size());
+    for (std::size_t k = 0; k < horizons.size(); ++k)
+        horizonRows[k] = k;
+    const std::size_t currentRow = currentInside ? static_cast<std::size_t>(d.horizonDays - 1) : horizons.size();
+    d.valid = true;
+    d.byHorizon = slice(horizonRows, confidences.size(), options.lineConfidences.size());
+    d.byConfidence = slice({currentRow}, 0, confidences.size());
+    d.map = slice(horizonRows, 0, confidences.size());
 
     const auto [lo, hi] = std::minmax_element(d.map.var.cbegin(), d.map.var.cend());
     d.varMin = *lo;
@@ -109,6 +165,8 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
         d.contours.push_back(std::move(c));
     }
 
+    if (model != RiskModel::Normal)
+        return d; // the turning horizon below is the normal model's
     for (double c : options.lineConfidences) {
         const auto h = normalVarTurningHorizon(oneDay, c);
         if (h && *h >= 1.0 && *h <= d.daysPerYear)

@@ -57,9 +57,7 @@ QString tradeoffCaption(const WorkbookResults &w)
               + tr("With the expected gain, VaR at %1 stops growing after about %2 trading days, at %3.")
                     .arg(confidenceText(t.confidence), QLocale().toString(t.horizonDays, 'f', 0), money(t.var));
     }
-    if (r.assumptions.model != RiskModel::Normal)
-        text += QLatin1Char(' ') + tr("The grid uses the normal model throughout; the headline figure follows the %1 model.")
-                                       .arg(headlineModelName(r));
+    text += QLatin1Char(' ') + tr("Every cell follows the %1 model, as the headline.").arg(headlineModelName(r));
     return text + QLatin1Char(' ') + tr("From %1.").arg(dataBehindText(r)) + QLatin1Char(' ') + cautionText();
 }
 
@@ -81,11 +79,16 @@ QString contributionsCaption(const WorkbookResults &w)
         text += QLatin1Char(' ') + tr("One holding is a hedge and lowers VaR.");
     else if (hedges > 1)
         text += QLatin1Char(' ') + tr("Of the holdings, %1 are hedges and lower VaR.").arg(QLocale().toString(static_cast<int>(hedges)));
-    text += QLatin1Char(' ')
-          + tr("Held on their own the holdings' VaRs would sum to %1; held together they offset each other by %2.")
-                .arg(money(d.undiversifiedVar), money(d.diversificationBenefit));
-    if (r.model.contributions != r.model.used)
-        text += QLatin1Char(' ') + tr("The parts follow the normal model, which allocates VaR by holding.");
+    if (d.diversificationBenefit >= 0.0)
+        text += QLatin1Char(' ')
+              + tr("Held on their own the holdings' VaRs would sum to %1; held together they offset each other by %2.")
+                    .arg(money(d.undiversifiedVar), money(d.diversificationBenefit));
+    else
+        text += QLatin1Char(' ')
+              + tr("Held on their own the holdings' VaRs would sum to %1, less than together by %2: VaR is not "
+                   "subadditive under this model here.")
+                    .arg(money(d.undiversifiedVar), money(-d.diversificationBenefit));
+    text += QLatin1Char(' ') + tr("Every figure follows the %1 model, as the headline.").arg(headlineModelName(r));
     return text + QLatin1Char(' ') + tr("From %1.").arg(dataBehindText(r)) + QLatin1Char(' ') + cautionText();
 }
 
@@ -148,7 +151,8 @@ QString modelsCaption(const WorkbookResults &w)
 
 QString dataBehindText(const RiskReport &r)
 {
-    const QString weighting = r.assumptions.estimator == CovarianceEstimator::Ewma
+    // The weighting shapes the covariance, which the historical figure does not use.
+    const QString weighting = r.assumptions.estimator == CovarianceEstimator::Ewma && r.model.used != RiskModel::Historical
                                   ? tr(", recent days weighted more (λ %1)").arg(QLocale().toString(r.assumptions.lambda, 'f', 3))
                                   : QString();
     return tr("the %1 model fitted to the %2 daily returns from %3 to %4%5")

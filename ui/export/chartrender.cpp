@@ -215,18 +215,17 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
         for (int i = 0; i < p->itemCount(); ++i)
             if (auto *t = qobject_cast<QCPItemText *>(p->item(i)); t && (t->text() == d.varLabel || t->text() == d.esLabel))
                 labels.push_back(t);
-        // A label right of a line goes right of the innermost line (VaR's): ES's label right of
-        // its own line would cross VaR's.
-        const double inner = std::max(d.tailBoundary, d.esMarker);
-        // Left of its own line VaR's label would cross ES's line wherever the two lines are closer
-        // than the label is wide, so on paper it always goes right of its line; ES's stays left of
-        // its line where it fits.
+        // Each label at its own line. Left of its own line VaR's label would cross ES's line
+        // wherever the two lines are closer than the label is wide, so on paper it goes right of its
+        // line; ES's goes left of its line where it fits, else right of its own line (lower down
+        // than VaR's label, so the two never overlap).
         for (QCPItemText *t : labels) {
             const double width = QFontMetricsF(fonts.scaled(t->font())).horizontalAdvance(t->text()) + 12.0;
             const bool es = t->text() == d.esLabel;
-            const bool fitsLeft = es && width <= room(t->position->key());
+            const double own = es ? d.esMarker : d.tailBoundary;
+            const bool fitsLeft = es && width <= room(own);
             t->setPositionAlignment((fitsLeft ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
-            t->position->setCoords(fitsLeft ? t->position->key() : inner, es ? 0.12 : 0.3);
+            t->position->setCoords(own, es ? 0.12 : 0.3);
         }
         charts.note = chart->data().note;
         charts.panes.push_back({chart->plot(), area});

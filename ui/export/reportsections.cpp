@@ -8,6 +8,7 @@
 #include "text/version.h"
 #include "text/numbers.h"
 
+#include "tailwise/modelgrid.h"
 #include "tailwise/grid.h"
 
 #include <QCoreApplication>
@@ -152,16 +153,16 @@ void addLossTail(Document &doc, const RiskReport &r, const ChartFigure &chart)
 void addContributions(Document &doc, const RiskReport &r, const ChartFigure &chart)
 {
     doc.add(TextStyle::Heading, tr("What drives the risk"));
-    const bool normal = r.model.used == RiskModel::Normal;
+    const bool scenarios = r.model.contributions == RiskModel::Historical || r.model.contributions == RiskModel::MonteCarlo;
     doc.add(TextStyle::Body,
-            tr("Each holding's contribution is its part of the portfolio's VaR (Euler allocation): the parts add up "
-               "to the whole, and a negative part is a hedge that lowers it. “Alone” is the VaR the holding would "
-               "have by itself."));
-    if (!normal || r.model.contributions != r.model.used)
-        doc.add(TextStyle::Note, tr("The contributions follow the normal model at the same assumptions, since %1 "
-                                    "has no allocation here; they add up to the normal model's VaR, not to the "
-                                    "headline figure.")
-                                     .arg(modelLabel(r.model.used)));
+            (scenarios ? tr("Under the %1 model, each holding's contribution is its part of the portfolio's VaR (its "
+                            "average loss in the scenarios whose loss is near VaR, by a kernel estimate) and of ES (its "
+                            "average loss in the scenarios beyond VaR)")
+                       : tr("Under the %1 model, each holding's contribution is its part of the portfolio's VaR and ES "
+                            "(Euler allocation)"))
+                    .arg(modelLabel(r.model.contributions))
+                + tr(": the parts add up to the headline figures, and a negative part is a hedge that lowers them. "
+                     "“Alone” is the VaR the holding would have by itself under the same model."));
     Table t;
     t.columns = {{tr("Holding"), false, 3.0},       {tr("Exposure"), true, 1.35},
                  {tr("Weight"), true, 0.9},          {tr("VaR alone"), true, 1.2},
@@ -183,11 +184,18 @@ void addContributions(Document &doc, const RiskReport &r, const ChartFigure &cha
                       percentText(shareOf(component, component), 1), moneyText(componentEs, 0)});
     t.boldLastRows = 1;
     doc.add(t);
-    doc.add(TextStyle::Body,
-            tr("Held alone, the holdings' VaRs add up to %1; held together, VaR is %2: diversification lowers it "
-               "by %3.")
-                .arg(moneyText(r.undiversifiedVar, 0), moneyText(component, 0),
-                     moneyText(r.diversificationBenefit, 0)));
+    if (r.diversificationBenefit >= 0.0)
+        doc.add(TextStyle::Body,
+                tr("Held alone, the holdings' VaRs add up to %1; held together, VaR is %2: diversification lowers it "
+                   "by %3.")
+                    .arg(moneyText(r.undiversifiedVar, 0), moneyText(r.figures.var, 0),
+                         moneyText(r.diversificationBenefit, 0)));
+    else
+        doc.add(TextStyle::Body,
+                tr("Held alone, the holdings' VaRs add up to %1; held together, VaR is %2, higher by %3: under the %4 "
+                   "model VaR is not subadditive here, so holding them together shows no diversification benefit.")
+                    .arg(moneyText(r.undiversifiedVar, 0), moneyText(r.figures.var, 0),
+                         moneyText(-r.diversificationBenefit, 0), modelLabel(r.model.used)));
     addFigure(doc, chart);
 }
 
@@ -195,16 +203,20 @@ void addHorizonAndConfidence(Document &doc, const RiskReport &r, const ChartFigu
 {
     const Assumptions &a = r.assumptions;
     doc.add(TextStyle::Heading, tr("Horizon and confidence"));
-    doc.add(TextStyle::Body, tr("How VaR grows with the horizon and with the confidence. The table and the chart "
-                                "use the normal model from the one-day P&L's mean and spread, scaled by the square "
-                                "root of the horizon (independent days assumed); the current setting is in bold."));
-    if (r.model.used != RiskModel::Normal)
-        doc.add(TextStyle::Note, tr("The headline figures come from the %1 model, so they differ from this table's "
-                                    "normal-model cell at the same setting.")
-                                     .arg(modelLabel(r.model.used)));
-    const auto horizons = reportHorizons(a);
+    doc.add(TextStyle::Body, tr("How VaR grows with the horizon and with the confidence. Every cell of the table and "
+                                "the chart is under the %1 model, as the headline figures, so the cell at the "
+                                "current setting (in bold) is the headline VaR.")
+                                 .arg(modelLabel(r.model.used)));
+    auto horizons = reportHorizons(a);
+    if (r.model.used == RiskModel::Historical && a.historicalHorizon == HistoricalHorizon::Overlapping)
+        std::erase_if(horizons, [&](int h) { return h > r.windowReturns - 1; });
     const auto confidences = reportConfidences(a);
-    const RiskGrid grid = normalRiskGrid(r.oneDay, horizons, confidences);
+    auto modelGrid = modelRiskGrid(r, horizons, confidences);
+    if (!modelGrid) {
+        doc.add(TextStyle::Body, tr("No table: %1.").arg(str(modelGrid.error().message)));
+        return;
+    }
+    const RiskGrid &grid = modelGrid.value();
     Table t;
     t.columns.push_back({tr("Horizon"), false, 2.0});
     for (double c : confidences)
@@ -228,7 +240,7 @@ void addHorizonAndConfidence(Document &doc, const RiskReport &r, const ChartFigu
     }
     doc.add(t);
     if (const auto turn = normalVarTurningHorizon(r.oneDay, a.confidence);
-        turn && std::isfinite(*turn) && *turn <= 10.0 * a.daysPerYear)
+        r.model.used == RiskModel::Normal && turn && std::isfinite(*turn) && *turn <= 10.0 * a.daysPerYear)
         doc.add(TextStyle::Note, tr("With the estimated expected gain, VaR at %1 stops growing after about %2 "
                                     "trading days and falls beyond: the gain then outweighs the spread.")
                                      .arg(confidence(a.confidence), number(*turn, 0)));
@@ -419,10 +431,12 @@ void addAssumptions(Document &doc, const WorkbookContents &w, const RiskReport *
     doc.add(t);
 }
 
-void addCautions(Document &doc, bool withBacktest)
+namespace {
+
+void addCautionsAt(Document &doc, bool withBacktest, double confidence)
 {
     doc.add(TextStyle::Heading, tr("Cautions"));
-    for (const Caution &c : cautions()) {
+    for (const Caution &c : cautions(confidence)) {
         doc.add(TextStyle::Subheading, c.title);
         doc.add(TextStyle::Body, c.text);
     }
@@ -431,6 +445,14 @@ void addCautions(Document &doc, bool withBacktest)
         doc.add(TextStyle::Body, backtestwords::caution());
     }
 }
+
+} // namespace
+
+void addCautions(Document &doc, bool withBacktest)
+{
+    addCautionsAt(doc, withBacktest, 0.99);
+}
+
 
 Document buildReport(const ReportInputs &in)
 {
@@ -457,7 +479,7 @@ Document buildReport(const ReportInputs &in)
     if (report && in.models)
         addModelComparison(doc, *in.models, *report, in.charts.models);
     addAssumptions(doc, *in.contents, report);
-    addCautions(doc, in.backtest.has_value());
+    addCautionsAt(doc, in.backtest.has_value(), in.contents->assumptions.confidence);
     return doc;
 }
 

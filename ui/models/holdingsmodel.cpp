@@ -190,6 +190,22 @@ QVariant HoldingsModel::data(const QModelIndex &index, int role) const
     }
 }
 
+namespace {
+// The model the figures follow, in words.
+QString figuresModelName(const Workbook &workbook)
+{
+    const auto &report = workbook.results().report();
+    switch (report ? report->model.used : workbook.assumptions().model) {
+    case RiskModel::Normal: return HoldingsModel::tr("normal");
+    case RiskModel::StudentT: return HoldingsModel::tr("Student-t");
+    case RiskModel::CornishFisher: return HoldingsModel::tr("Cornish–Fisher");
+    case RiskModel::Historical: return HoldingsModel::tr("historical-simulation");
+    case RiskModel::MonteCarlo: return HoldingsModel::tr("Monte Carlo");
+    }
+    return HoldingsModel::tr("normal");
+}
+} // namespace
+
 QVariant HoldingsModel::headerData(int section, Qt::Orientation orientation, int role) const
 {
     if (orientation == Qt::Vertical) {
@@ -218,10 +234,14 @@ QVariant HoldingsModel::headerData(int section, Qt::Orientation orientation, int
         case PriceColumn: return tr("The price the holding is valued at: the last close, or one you type (shown in italics).");
         case MarketValueColumn: return tr("Quantity × price, in the portfolio's currency.");
         case WeightColumn: return tr("Market value as a share of the portfolio's net value.");
-        case StandaloneVarColumn: return tr("The Value-at-Risk this holding would have if it were the whole portfolio.");
+        case StandaloneVarColumn:
+            return tr("The Value-at-Risk this holding would have if it were the whole portfolio, under the %1 model "
+                      "as the headline.")
+                .arg(figuresModelName(m_workbook));
         case VarShareColumn:
-            return tr("This holding's part of the portfolio's VaR (its component VaR over the total). "
-                      "The parts add up to 100%; a negative part is a hedge that lowers the total.");
+            return tr("This holding's part of the portfolio's VaR (its component VaR over the total), under the %1 "
+                      "model as the headline. The parts add up to 100%; a negative part is a hedge that lowers the total.")
+                .arg(figuresModelName(m_workbook));
         default: return {};
         }
     }

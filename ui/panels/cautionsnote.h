@@ -10,6 +10,9 @@ class CautionsNote : public QLabel {
     Q_OBJECT
 public:
     explicit CautionsNote(QWidget *parent = nullptr);
+
+    // Follows the confidence of the figures: "about once in 40 horizons at 97.5%".
+    void setConfidence(double confidence);
 };
 
 } // namespace tailwise::ui

@@ -11,11 +11,14 @@ struct Caution {
     QString title;
     QString text;
 };
+// Each follows the confidence of the figures ("about once in 40 horizons at 97.5%").
+// "once in 40 horizons at 97.5%": 1/(1 − C) rounded to a whole number.
+QString onceInText(double confidence);
 // The cautions as titled plain paragraphs (the report sets them itself).
-QList<Caution> cautions();
+QList<Caution> cautions(double confidence);
 // The same as rich text, for the About box and the tooltip.
-QString cautionsFullText();
+QString cautionsFullText(double confidence);
 // The always-visible line.
-QString cautionsShortText();
+QString cautionsShortText(double confidence);
 
 } // namespace tailwise::ui

@@ -28,7 +28,8 @@ QString headlineSentence(const RiskReport &r)
     const QLocale locale;
     const QString confidence = confidenceText(r.assumptions.confidence);
     const QString tail = confidenceText(1.0 - r.assumptions.confidence);
-    const QString weighting = r.assumptions.estimator == CovarianceEstimator::Ewma
+    // The weighting shapes the covariance, which the historical figure does not use.
+    const QString weighting = r.assumptions.estimator == CovarianceEstimator::Ewma && r.model.used != RiskModel::Historical
                                   ? tr(", recent days weighted more (λ %1)").arg(locale.toString(r.assumptions.lambda, 'f', 3))
                                   : QString();
     QString share = r.varFraction ? tr(" (%1 of the portfolio's value)").arg(percentText(r.varFraction)) : QString();

@@ -8,8 +8,8 @@
 // The model (Assumptions::model) chooses how VaR and ES are computed: normal (parametric.h),
 // student-t (studentt.h), cornish-fisher (cornishfisher.h), historical (historical.h) or
 // monte-carlo (simulate.h). σ_h and μ_h are always the covariance-based horizon moments above; the
-// contributions are always the normal model's Euler allocation (ModelDetails::contributions says
-// so), since the other models have no allocation defined here. Student-t with ν fitted, or
+// contributions, standalone figures and diversification follow the model that gave the figures
+// (allocation.h; ModelDetails::contributions equals ModelDetails::used). Student-t with ν fitted, or
 // Cornish–Fisher, fall back to the normal model with a warning when the P&L's shape cannot be
 // estimated or has no excess kurtosis; ModelDetails::used names the model that gave the figures.
 #pragma once

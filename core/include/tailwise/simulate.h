@@ -24,11 +24,25 @@
 // Monte Carlo Methods in Financial Engineering, §9.1 on quantile estimation (mem); the batch
 // method is common practice). The ES standard error is given the same way.
 //
+// Allocation (SimulationSettings::allocate): a second pass replays every block's seeded stream
+// and accumulates, per draw k with kernel weight w_k and tail indicator, the standard vector
+// g_k z_k (g_k = 1, or s/√(W_k/ν) for t draws); with F the factor above (Σ = F Fᵀ) a holding's
+// P&L in draw k is P_{k,i} = e_i (H μ_i + √H g_k (F z_k)_i), so the kernel and tail sums of
+// allocation.h's scenario definitions are e_i (H μ_i Σ_k w_k + √H (F Σ_k w_k g_k z_k)_i) — exactly
+// those definitions over the draws, without forming the draws × holdings matrix. Standalone
+// figures: the model on each holding alone with the same seed, which is |e_i| σ_i times the VaR
+// (ES) of a unit one-asset book (long, or short for e_i < 0) minus H μ_i e_i, since the type 7
+// quantile and the tail mean follow positive affine maps; two one-asset simulations give them all.
+//
+// The grid (grid.h) reuses one set of standard draws y_k = g_k bᵀz_k (simulateStandardPnl); the
+// H-day loss of draw k is −(H eᵀμ + √H y_k) at every horizon.
+//
 // Errors: Cancelled when the stop token is triggered; Assumption (field "simulations") when fewer
 // than 1000 draws are asked for. Preconditions: Σ symmetric positive semi-definite, sizes agree,
 // 0 < C < 1, H ≥ 1, ν > 2 when given.
 #pragma once
 
+#include "tailwise/allocation.h"
 #include "tailwise/parametric.h"
 #include "tailwise/result.h"
 #include "tailwise/runcontrol.h"
@@ -45,6 +59,7 @@ struct SimulationSettings {
     int simulations = 100000;
     std::uint64_t seed = 1;
     std::optional<double> dof; // t draws with ν > 2; normal when unset
+    bool allocate = false;     // also components and standalone figures (see above)
 };
 
 struct SimulationFigures {
@@ -54,6 +69,7 @@ struct SimulationFigures {
     std::string standardErrorMethod; // a sentence naming the method, for reports
     int simulations = 0;
     int blocks = 0;
+    std::optional<Allocation> allocation; // when SimulationSettings::allocate
     Warnings warnings;
 };
 
@@ -66,5 +82,10 @@ std::uint64_t blockSeed(std::uint64_t seed, std::uint64_t block);
 Result<SimulationFigures> simulateVarEs(const Eigen::VectorXd &exposures, const Eigen::MatrixXd &covariance,
                                         const Eigen::VectorXd &mean, int horizonDays, double confidence,
                                         const SimulationSettings &settings, const RunControl &control = {});
+
+// The standard portfolio draws y_k = g_k bᵀz_k (no drift, no √H) in draw order: the losses of
+// simulateVarEs at horizon H are −(H eᵀμ + √H y_k). Errors as simulateVarEs.
+Result<Eigen::VectorXd> simulateStandardPnl(const Eigen::VectorXd &exposures, const Eigen::MatrixXd &covariance,
+                                            const SimulationSettings &settings, const RunControl &control = {});
 
 } // namespace tailwise

@@ -108,11 +108,61 @@ private slots:
         QVERIFY(!o.isEmpty());
         QCOMPARE(o.value("model").toString(), model);
         QCOMPARE(o.value("model_used").toString(), model);
-        QCOMPARE(o.value("contributions_model").toString(), QStringLiteral("normal"));
+        // Every figure under the chosen model (allocation.h): the components add up to its VaR and
+        // ES, and the diversification benefit is its own subtraction.
+        QCOMPARE(o.value("contributions_model").toString(), model);
+        double componentVar = 0.0, componentEs = 0.0, standalone = 0.0;
+        for (const auto h : o.value("contributions").toArray()) {
+            componentVar += h.toObject().value("component_var").toDouble();
+            componentEs += h.toObject().value("component_es").toDouble();
+            standalone += h.toObject().value("standalone_var").toDouble();
+        }
+        const double var = o.value("var").toDouble(), es = o.value("es").toDouble();
+        QVERIFY(std::abs(componentVar - var) <= 1e-9 * var);
+        QVERIFY(std::abs(componentEs - es) <= 1e-9 * es);
+        QVERIFY(std::abs(standalone - o.value("undiversified_var").toDouble()) <= 1e-9 * standalone);
+        QVERIFY(std::abs(o.value("undiversified_var").toDouble() - var - o.value("diversification_benefit").toDouble())
+                <= 1e-9 * standalone);
         QVERIFY(o.value("var").toDouble() > 0.0);
         QVERIFY(o.value("es").toDouble() >= o.value("var").toDouble());
         QVERIFY(allFinite(o));
         QCOMPARE(o.contains("standard_error"), model == "monte-carlo");
+    }
+
+    // --grid: every cell under the chosen model (modelgrid.h); the cell at the run's own horizon
+    // and confidence is the headline, to the bit for historical and Student-t.
+    void gridFollowsTheModel_data()
+    {
+        QTest::addColumn<QString>("model");
+        for (const char *m : {"normal", "student-t", "cornish-fisher", "historical", "monte-carlo"})
+            QTest::newRow(m) << QString::fromLatin1(m);
+    }
+    void gridFollowsTheModel()
+    {
+        QFETCH(QString, model);
+        const QJsonObject o = json({"--model", model, "--window", "500", "--horizon", "10", "--confidence", "0.975", "--grid"});
+        QVERIFY(!o.isEmpty());
+        const QJsonObject grid = o.value("grid").toObject();
+        QCOMPARE(grid.value("model").toString(), model);
+        const QJsonArray horizons = grid.value("horizons_days").toArray();
+        const QJsonArray confidences = grid.value("confidences").toArray();
+        int row = -1, column = -1;
+        for (int k = 0; k < horizons.size(); ++k)
+            if (horizons.at(k).toInt() == 10)
+                row = k;
+        for (int k = 0; k < confidences.size(); ++k)
+            if (confidences.at(k).toDouble() == 0.975)
+                column = k;
+        QVERIFY(row >= 0 && column >= 0);
+        const double cell = grid.value("var").toArray().at(row).toArray().at(column).toDouble();
+        const double var = o.value("var").toDouble();
+        if (model == "historical" || model == "student-t" || model == "cornish-fisher")
+            QCOMPARE(cell, var);
+        else
+            QVERIFY(std::abs(cell - var) <= 1e-9 * var);
+        const Run text = runCli({"var", "--prices", euPrices, "--holdings", m_holdings, "--model", model, "--window", "500", "--grid"});
+        QCOMPARE(text.exitCode, 0);
+        QVERIFY(text.out.contains(QStringLiteral("every cell under the %1 model").arg(model)));
     }
 
     void historicalMatchesNumPy()
