@@ -281,7 +281,7 @@ private slots:
         p.prices = Eigen::MatrixXd::Constant(3, n, 100.0);
         p.prices.row(1).array() = 101.0;
         for (int i = 0; i < n; ++i)
-            p.assets.push_back("A" + std::to_string(i));
+            p.assets.push_back(std::to_string(i).insert(0, 1, 'A'));
         p.dates = {Date{19724}, Date{19725}, Date{19726}};
         Holdings h;
         for (int i = 0; i < n; ++i)
