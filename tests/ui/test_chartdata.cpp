@@ -6,6 +6,7 @@
 #include "charts/losstailchartdata.h"
 #include "charts/tradeoffchartdata.h"
 
+#include "tailwise/modelgrid.h"
 #include "tailwise/grid.h"
 
 #include <QtTest>
