@@ -167,9 +167,11 @@ int main(int argc, char **argv)
 {
     const std::vector<std::string> args(argv + 1, argv + argc);
     // Redirected output is written at the end in one flush, so that a failure (a full disk) is
-    // seen there with its reason.
+    // seen there with its reason. The buffer is our own: glibc ignores the size when it is asked
+    // to allocate one, and would write (and fail) every 4 KiB, leaving errno unset at the end.
+    static char outputBuffer[1 << 22];
     if (!::isatty(STDOUT_FILENO))
-        std::setvbuf(stdout, nullptr, _IOFBF, 1 << 22);
+        std::setvbuf(stdout, outputBuffer, _IOFBF, sizeof outputBuffer);
     int code = exitOk;
     // Whatever a library throws (a special function outside its domain, memory running out) ends
     // as a message and exit 2, never as an abort.

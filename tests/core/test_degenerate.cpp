@@ -215,14 +215,14 @@ private slots:
     // with a message that names the holding or the asset.
     void overflowIsRefused()
     {
-        const PriceHistory jumpy = prices("date,A,B\n2024-01-02,1e-300,1\n2024-01-03,1e300,1\n2024-01-04,1e-300,1.1\n"
-                                          "2024-01-05,1e300,1\n");
-        const auto returns = computeRisk(jumpy, holdings("asset,quantity\nA,1\nB,1\n", jumpy), Assumptions{});
-        QVERIFY(!returns.ok());
-        QCOMPARE(returns.error().kind, ErrorKind::Numerical);
-        QVERIFY2(returns.error().message.find("\"A\"") != std::string::npos
-                     && returns.error().message.find("prices.csv") != std::string::npos,
-                 returns.error().message.c_str());
+        // Returns that overflow are refused where the prices are read, naming the line and column.
+        const auto jumpy = parsePriceCsv("date,A,B\n2024-01-02,1e-300,1\n2024-01-03,1e300,1\n2024-01-04,1e-300,1.1\n"
+                                         "2024-01-05,1e300,1\n",
+                                         "prices.csv");
+        QVERIFY(!jumpy.ok());
+        QVERIFY2(jumpy.error().message.find("\"A\"") != std::string::npos
+                     && jumpy.error().message.find("prices.csv, line 3, column 2") != std::string::npos,
+                 jumpy.error().message.c_str());
 
         const PriceHistory p = prices(twinPrices);
         const auto exposure = computeRisk(p, holdings("asset,quantity\nA,1\nC,1e308\n", p), Assumptions{});

@@ -107,7 +107,8 @@ void compareContents(const WorkbookContents &got, const WorkbookContents &want)
     for (std::size_t i = 0; i < want.holdings.size(); ++i) {
         const Holding &g = got.holdings[i], &w = want.holdings[i];
         QCOMPARE(g.asset, w.asset);
-        QCOMPARE(bits(g.quantity), bits(w.quantity));
+        if (!w.value) // a holding given by value has no quantity in the file
+            QCOMPARE(bits(g.quantity), bits(w.quantity));
         QCOMPARE(g.priceOverride.has_value(), w.priceOverride.has_value());
         if (w.priceOverride)
             QCOMPARE(bits(*g.priceOverride), bits(*w.priceOverride));
