@@ -1,6 +1,9 @@
 // tailwise-cli: the command line over the core. Thin: parse, call core, print.
-// Exit status: 0 success, 1 bad input data, 2 bad usage.
+// Exit status: 0 success, 1 bad input data, 2 bad usage, 3 a limit breached with --fail-on-breach.
 #include "backtestcommand.h"
+#include "batchcommand.h"
+#include "dailyrun.h"
+#include "historycommand.h"
 #include "reportprint.h"
 #include "varextras.h"
 #include "varoptions.h"
@@ -9,11 +12,16 @@
 #include "pdfreportcommand.h"
 #include "rendercommand.h"
 
+#include "tailwise/asof.h"
 #include "tailwise/holdings.h"
+#include "tailwise/sha256.h"
+#include "tailwise/inputhash.h"
+#include "tailwise/version.h"
 #include "tailwise/prices.h"
 #include "tailwise/risk.h"
 
 #include <chrono>
+#include <filesystem>
 #include <cstdio>
 #include <optional>
 #include <string>
@@ -31,6 +39,9 @@ Usage:
   tailwise-cli var [options]     risk figures of a portfolio (tailwise-cli var --help)
   tailwise-cli backtest [options]  would the VaR have held up? (tailwise-cli backtest --help)
   tailwise-cli pack [options]    make a workbook (.tailwise) from CSV files (tailwise-cli pack --help)
+  tailwise-cli batch WORKBOOK... | --list FILE
+                                 many workbooks at once (tailwise-cli batch --help)
+  tailwise-cli history FILE.db   the recorded figures (tailwise-cli history --help)
   tailwise-cli render WORKBOOK --chart KIND --out FILE
                                  draw a chart to PNG, SVG or PDF (tailwise-cli render --help)
   tailwise-cli report WORKBOOK --out FILE.pdf
@@ -53,9 +64,13 @@ std::string messageFor(const tailwise::Error &error)
     return error.message;
 }
 
-int runVar(const std::vector<std::string> &args)
+int runVar(std::vector<std::string> args)
 {
     using namespace tailwise;
+    cli::DailyOptions daily; // --as-of, --limit, --fail-on-breach, --record, --xlsx (dailyrun.h)
+    if (const auto taken = cli::takeDailyOptions(args, daily, {"--as-of", "--limit", "--fail-on-breach", "--record", "--xlsx"});
+        !taken)
+        return fail(exitUsage, taken.error().message);
     const auto started = std::chrono::steady_clock::now();
     auto msSinceStart = [&] {
         return std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - started).count();
@@ -78,6 +93,16 @@ int runVar(const std::vector<std::string> &args)
         std::fputs(cli::varHelpText().c_str(), stdout);
         return exitOk;
     }
+    auto settings = cli::applyDailyOptions(daily, workbook ? workbook->limits : std::vector<Limit>{});
+    if (!settings)
+        return fail(exitUsage, settings.error().message);
+    if (req.single && (settings.value().asOf || !daily.record.empty()))
+        return fail(exitUsage, std::string(settings.value().asOf ? "--as-of" : "--record")
+                                   + ": needs a price history (--workbook, or --prices with --holdings), not --value");
+    // The inputs as used (after the as-of cut), for the stamp and the record.
+    PriceHistory usedPrices;
+    Holdings usedHoldings;
+    std::string recordName;
     Result<RiskReport> report = Error{};
     Result<cli::ReportExtras> extras = cli::ReportExtras{};
     cli::RunTimings timings;
@@ -88,6 +113,16 @@ int runVar(const std::vector<std::string> &args)
         report = computeSinglePositionRisk(*req.single, req.assumptions, control);
     } else if (workbook) {
         timings.loadMs = msSinceStart(); // the workbook was read before the options were parsed
+        if (settings.value().asOf) {
+            auto cut = cutHistoryAt(workbook->prices, *settings.value().asOf);
+            if (!cut)
+                return fail(exitBadInput, messageFor(cut.error()));
+            workbook->prices = std::move(cut).value();
+        }
+        usedPrices = workbook->prices;
+        usedHoldings = workbook->holdings;
+        recordName = workbook->title.isEmpty() ? std::filesystem::path(req.workbookPath).stem().string()
+                                               : workbook->title.toStdString();
         report = computeRisk(workbook->prices, workbook->holdings, req.assumptions, control);
         if (report)
             extras = cli::computeExtras(req.models, workbook->prices, workbook->holdings, req.assumptions);
@@ -100,6 +135,15 @@ int runVar(const std::vector<std::string> &args)
         if (!holdings)
             return fail(exitBadInput, holdings.error().message);
         timings.loadMs = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - loading).count();
+        if (settings.value().asOf) {
+            auto cut = cutHistoryAt(prices.value(), *settings.value().asOf);
+            if (!cut)
+                return fail(exitBadInput, messageFor(cut.error()));
+            prices = std::move(cut).value();
+        }
+        usedPrices = prices.value();
+        usedHoldings = holdings.value();
+        recordName = std::filesystem::path(req.holdingsPath).stem().string();
         report = computeRisk(prices.value(), holdings.value(), req.assumptions, control);
         if (report)
             extras = cli::computeExtras(req.models, prices.value(), holdings.value(), req.assumptions);
@@ -110,6 +154,23 @@ int runVar(const std::vector<std::string> &args)
         return fail(exitBadInput, messageFor(extras.error()));
     if (workbook)
         extras.value().currency = workbook->currency.toStdString();
+    const RiskReport &figures = report.value();
+    auto limitUses = evaluateLimits(settings.value().limits, {figures.figures.var, figures.figures.es, figures.portfolioValue});
+    if (!limitUses)
+        return fail(exitBadInput, messageFor(limitUses.error()));
+    extras.value().limits = limitUses.value();
+    if (req.single) {
+        // No price history: the position and the assumptions are the inputs.
+        cli::RunStamp stamp;
+        stamp.toolVersion = toolVersion();
+        stamp.inputSha256 = sha256Hex("single-position\nvalue=" + formatShortest(req.single->value) + "\nvolatility="
+                                      + formatShortest(req.single->annualVolatility) + "\ndrift="
+                                      + formatShortest(req.single->annualDrift) + "\n"
+                                      + canonicalAssumptionsText(req.assumptions));
+        extras.value().stamp = stamp;
+    } else {
+        extras.value().stamp = cli::makeStamp(usedPrices, usedHoldings, req.assumptions, settings.value().asOf);
+    }
     const bool single = req.single.has_value();
     std::optional<cli::RunTimings> shownTimings;
     if (req.timings)
@@ -120,6 +181,20 @@ int runVar(const std::vector<std::string> &args)
     if (req.json)
         for (const auto &w : report.value().warnings)
             std::fprintf(stderr, "tailwise-cli: warning: %s\n", w.c_str());
+    if (!daily.record.empty()) {
+        auto store = store::HistoryStore::open(daily.record);
+        if (!store)
+            return fail(exitBadInput, store.error().message);
+        const auto record = cli::makeRunRecord(recordName, figures, *extras.value().stamp, usedPrices, usedHoldings,
+                                               extras.value().limits);
+        if (const auto recorded = cli::recordRun(store.value(), record); !recorded)
+            return fail(exitBadInput, recorded.error().message);
+    }
+    if (!daily.xlsx.empty())
+        if (const auto written = cli::writeVarWorkbook(daily.xlsx, figures, extras.value()); !written)
+            return fail(exitBadInput, written.error().message);
+    if (daily.failOnBreach && anyBreached(extras.value().limits))
+        return cli::exitBreach;
     return exitOk;
 }
 
@@ -135,7 +210,7 @@ int main(int argc, char **argv)
         return exitOk;
     }
     if (args[0] == "--version") {
-        std::puts("tailwise-cli 0.1.0");
+        std::printf("tailwise-cli %s\n", tailwise::toolVersion());
         return exitOk;
     }
     if (args[0] == "var")
@@ -144,9 +219,13 @@ int main(int argc, char **argv)
         return tailwise::cli::runPackCommand({args.begin() + 1, args.end()});
     if (args[0] == "backtest")
         return tailwise::cli::runBacktestCommand({args.begin() + 1, args.end()});
+    if (args[0] == "batch")
+        return tailwise::cli::runBatchCommand({args.begin() + 1, args.end()});
+    if (args[0] == "history")
+        return tailwise::cli::runHistoryCommand({args.begin() + 1, args.end()});
     if (args[0] == "render")
         return tailwise::cli::runRenderCommand({args.begin() + 1, args.end()});
     if (args[0] == "report")
         return tailwise::cli::runPdfReportCommand({args.begin() + 1, args.end()});
-    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest, pack, render, report)");
+    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest, pack, batch, history, render, report)");
 }
