@@ -4,6 +4,7 @@
 #include "batchcommand.h"
 #include "dailyrun.h"
 #include "historycommand.h"
+#include "tableexports.h"
 #include "reportprint.h"
 #include "varextras.h"
 #include "varoptions.h"
@@ -116,7 +117,7 @@ int runVar(std::vector<std::string> args)
         if (settings.value().asOf) {
             auto cut = cutHistoryAt(workbook->prices, *settings.value().asOf);
             if (!cut)
-                return fail(exitBadInput, messageFor(cut.error()));
+                return fail(exitBadInput, "--as-of" + cut.error().message.substr(cut.error().field.size()));
             workbook->prices = std::move(cut).value();
         }
         usedPrices = workbook->prices;
@@ -138,7 +139,7 @@ int runVar(std::vector<std::string> args)
         if (settings.value().asOf) {
             auto cut = cutHistoryAt(prices.value(), *settings.value().asOf);
             if (!cut)
-                return fail(exitBadInput, messageFor(cut.error()));
+                return fail(exitBadInput, "--as-of" + cut.error().message.substr(cut.error().field.size()));
             prices = std::move(cut).value();
         }
         usedPrices = prices.value();
