@@ -12,6 +12,25 @@
 
 namespace tailwise::cli {
 
+std::string dailyHelpText()
+{
+    return R"(
+Daily runs:
+  --as-of DATE         compute as of DATE (YYYY-MM-DD): the history ends there (a day without
+                       prices takes the last day before it) and holdings are valued at that close
+  --limit SPEC         a limit on VaR or ES, repeatable, replacing the workbook's limits:
+                       MEASURE=AMOUNT[%][,warn=W%][,group=NAME], MEASURE var or es, AMOUNT money
+                       or percent of value (%), the warning level 80% of the limit unless stated.
+                       Each limit's use and state (ok, warning, breached) is reported
+  --fail-on-breach     exit 3 when a limit is breached
+  --record FILE.db     append the run to a history database (see tailwise-cli history --help)
+  --xlsx FILE          also write the tables (summary, contributions, limits) to an .xlsx workbook
+Every report carries the tool version, the as-of date, the seed (Monte Carlo) and input_sha256, one
+SHA-256 of the prices, holdings and assumptions, so a figure can be traced to its inputs.
+Exit status 3: a limit breached with --fail-on-breach.
+)";
+}
+
 Status takeDailyOptions(std::vector<std::string> &args, DailyOptions &options, const std::vector<std::string> &accepted)
 {
     std::vector<std::string> rest;

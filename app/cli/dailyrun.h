@@ -36,6 +36,9 @@ struct DailyOptions {
 // are left in place for the command's parser to refuse. Error: an option without its value.
 Status takeDailyOptions(std::vector<std::string> &args, DailyOptions &options, const std::vector<std::string> &accepted);
 
+// The help of these options for `var` (appended to its help text).
+std::string dailyHelpText();
+
 // The options read: the as-of date and the limits (given on the command line they replace the
 // workbook's; otherwise the workbook's apply). Errors name the option.
 struct DailySettings {

@@ -91,7 +91,7 @@ int runVar(std::vector<std::string> args)
         return fail(exitUsage, request.error().message);
     const auto &req = request.value();
     if (req.help) {
-        std::fputs(cli::varHelpText().c_str(), stdout);
+        std::fputs((cli::varHelpText() + cli::dailyHelpText()).c_str(), stdout);
         return exitOk;
     }
     auto settings = cli::applyDailyOptions(daily, workbook ? workbook->limits : std::vector<Limit>{});

@@ -2,6 +2,7 @@
 
 #include "exitstatus.h"
 
+#include "dailyrun.h"
 #include "varoptions.h"
 
 #include "document/currencycode.h"
@@ -92,6 +93,9 @@ Usage:
   --scenario FILE      a stress scenario to keep in the workbook (CSV asset,shock as for
                        tailwise-cli var; named by the file name without folder and extension);
                        repeatable, kept in the order given, names must differ
+  --limit SPEC         a limit on VaR or ES to keep in the workbook, checked at every run;
+                       repeatable: MEASURE=AMOUNT[%][,warn=W%][,group=NAME], MEASURE var or es,
+                       AMOUNT money or percent of value (%), warning level 80% unless stated
 
 The assumption options are those of tailwise-cli var (--confidence, --horizon, --window,
 --estimator, ...); they are stored in the workbook, which then carries the whole analysis:
@@ -108,6 +112,7 @@ int runPackCommand(const std::vector<std::string> &args)
     QString currency;
     std::optional<ui::BacktestSettings> backtest;
     std::vector<std::string> scenarioPaths;
+    DailyOptions daily; // --limit, stored in the workbook
     for (std::size_t i = 0; i < args.size(); ++i) {
         const std::string &option = args[i];
         if (option == "--help" || option == "-h") {
@@ -138,6 +143,12 @@ int runPackCommand(const std::vector<std::string> &args)
                 return fail(exitUsage, *problem);
             continue;
         }
+        if (option == "--limit") {
+            if (i + 1 >= args.size())
+                return fail(exitUsage, option + ": expected a limit such as var=250000 after the option");
+            daily.limits.push_back(args[++i]);
+            continue;
+        }
         if (option == "--scenario") {
             if (i + 1 >= args.size())
                 return fail(exitUsage, option + ": expected a scenario file (CSV) after the option");
@@ -156,6 +167,9 @@ int runPackCommand(const std::vector<std::string> &args)
     if (out.empty())
         return fail(exitUsage, "--out: expected the workbook file to write (e.g. --out fund.tailwise)");
     const VarRequest &req = request.value();
+    const auto limits = applyDailyOptions(daily, {});
+    if (!limits)
+        return fail(exitUsage, limits.error().message);
 
     auto prices = readPriceCsv(req.pricesPath);
     if (!prices)
@@ -186,6 +200,7 @@ int runPackCommand(const std::vector<std::string> &args)
     contents.assumptions = req.assumptions;
     contents.backtest = backtest;
     contents.scenarios = std::move(scenarios);
+    contents.limits = limits.value().limits;
     const auto saved = ui::saveWorkbook(contents, QFile::decodeName(out.c_str()));
     if (!saved)
         return fail(exitBadInput, saved.error().message);
