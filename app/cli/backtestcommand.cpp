@@ -4,6 +4,10 @@
 
 #include "backtestoptions.h"
 #include "backtestprint.h"
+#include "optiongroups.h"
+#include "workbookinput.h"
+
+#include "document/backtestrequest.h"
 
 #include "tailwise/backtest.h"
 #include "tailwise/holdings.h"
@@ -12,18 +16,6 @@
 #include <cstdio>
 
 namespace tailwise::cli {
-
-namespace {
-
-// A core error about a field is said as the option the user typed ("window: …" → "--window: …").
-std::string messageFor(const Error &error)
-{
-    if (!error.field.empty() && error.message.rfind(error.field + ": ", 0) == 0)
-        return backtestOptionForField(error.field) + error.message.substr(error.field.size());
-    return error.message;
-}
-
-} // namespace
 
 int runBacktestCommand(const std::vector<std::string> &args)
 {
@@ -36,16 +28,28 @@ int runBacktestCommand(const std::vector<std::string> &args)
         return exitOk;
     }
     BacktestRequest request;
-    auto prices = readPriceCsv(options.pricesPath);
-    if (!prices)
-        return fail(exitBadInput, prices.error().message);
-    auto holdings = readHoldingsCsv(options.holdingsPath, &prices.value());
-    if (!holdings)
-        return fail(exitBadInput, holdings.error().message);
-    request.prices = std::move(prices).value();
-    request.holdings = std::move(holdings).value();
-    request.assumptions = options.assumptions;
-
+    if (!options.workbookPath.empty()) {
+        // The workbook's assumptions, backtest window and first backtest model; then the options.
+        auto contents = readWorkbookInput(options.workbookPath);
+        if (!contents)
+            return fail(exitBadInput, contents.error().message);
+        const ui::BacktestSettings settings = contents.value().backtest.value_or(ui::BacktestSettings{});
+        request = ui::backtestRequestFor(contents.value(), settings, settings.models.front());
+        auto withOptions = parseBacktestOptions(args, request.assumptions, true);
+        if (!withOptions)
+            return fail(exitUsage, withOptions.error().message);
+        request.assumptions = withOptions.value().assumptions;
+    } else {
+        auto prices = readPriceCsv(options.pricesPath);
+        if (!prices)
+            return fail(exitBadInput, prices.error().message);
+        auto holdings = readHoldingsCsv(options.holdingsPath, &prices.value());
+        if (!holdings)
+            return fail(exitBadInput, holdings.error().message);
+        request.prices = std::move(prices).value();
+        request.holdings = std::move(holdings).value();
+        request.assumptions = options.assumptions;
+    }
     const auto result = runBacktest(request);
     if (!result)
         return fail(exitBadInput, messageFor(result.error()));
@@ -55,7 +59,9 @@ int runBacktestCommand(const std::vector<std::string> &args)
         for (const auto &w : r.warnings)
             std::fprintf(stderr, "tailwise-cli: warning: %s\n", w.c_str());
     } else {
-        const BacktestPrintInput input{r, options.pricesPath, options.holdingsPath,
+        const std::string pricesName = options.workbookPath.empty() ? options.pricesPath : options.workbookPath + " (workbook)";
+        const std::string holdingsName = options.workbookPath.empty() ? options.holdingsPath : options.workbookPath + " (workbook)";
+        const BacktestPrintInput input{r, pricesName, holdingsName,
                                        static_cast<int>(request.holdings.size()), options.series};
         std::fputs(backtestText(input).c_str(), stdout);
     }

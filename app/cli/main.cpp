@@ -6,6 +6,8 @@
 #include "historycommand.h"
 #include "tableexports.h"
 #include "reportprint.h"
+#include "exitstatus.h"
+#include "optiongroups.h"
 #include "varextras.h"
 #include "varoptions.h"
 #include "workbookinput.h"
@@ -30,9 +32,11 @@
 
 namespace {
 
-constexpr int exitOk = 0;
-constexpr int exitBadInput = 1;
-constexpr int exitUsage = 2;
+using tailwise::cli::exitBadInput;
+using tailwise::cli::exitOk;
+using tailwise::cli::exitUsage;
+using tailwise::cli::fail;
+using tailwise::cli::messageFor;
 
 const char *topHelp = R"(tailwise-cli: Value-at-Risk and Expected Shortfall from the command line
 
@@ -51,20 +55,6 @@ Usage:
   tailwise-cli --version
 )";
 
-int fail(int code, const std::string &message)
-{
-    std::fprintf(stderr, "tailwise-cli: %s\n", message.c_str());
-    return code;
-}
-
-std::string messageFor(const tailwise::Error &error)
-{
-    // A core error about an assumption names the field; say it as the option the user typed.
-    if (!error.field.empty() && error.message.rfind(error.field + ": ", 0) == 0)
-        return tailwise::cli::optionForField(error.field) + error.message.substr(error.field.size());
-    return error.message;
-}
-
 int runVar(std::vector<std::string> args)
 {
     using namespace tailwise;
@@ -76,24 +66,30 @@ int runVar(std::vector<std::string> args)
     auto msSinceStart = [&] {
         return std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - started).count();
     };
-    // A workbook's stored assumptions are the starting point; the options given override them.
+    // The options are checked first (a usage error before any file is read); with a workbook,
+    // its stored assumptions are the starting point and the options given override them.
+    auto request = cli::parseVarOptions(args);
+    if (!request)
+        return fail(exitUsage, request.error().message);
+    if (request.value().help) {
+        std::fputs((cli::varHelpText() + cli::dailyHelpText()).c_str(), stdout);
+        return exitOk;
+    }
+    if (const auto checked = cli::applyDailyOptions(daily, {}); !checked)
+        return fail(exitUsage, checked.error().message);
     std::optional<ui::WorkbookContents> workbook;
-    if (const auto path = cli::workbookOption(args)) {
-        auto loaded = cli::readWorkbookInput(*path);
+    if (!request.value().workbookPath.empty()) {
+        auto loaded = cli::readWorkbookInput(request.value().workbookPath);
         if (!loaded)
             return fail(exitBadInput, loaded.error().message);
         workbook = std::move(loaded).value();
         for (const auto &w : workbook->warnings) // e.g. assumptions the file lacks took defaults
             std::fprintf(stderr, "tailwise-cli: warning: %s\n", w.c_str());
+        request = cli::parseVarOptions(args, workbook->assumptions, true);
+        if (!request)
+            return fail(exitUsage, request.error().message);
     }
-    auto request = cli::parseVarOptions(args, workbook ? workbook->assumptions : Assumptions{});
-    if (!request)
-        return fail(exitUsage, request.error().message);
     const auto &req = request.value();
-    if (req.help) {
-        std::fputs((cli::varHelpText() + cli::dailyHelpText()).c_str(), stdout);
-        return exitOk;
-    }
     auto settings = cli::applyDailyOptions(daily, workbook ? workbook->limits : std::vector<Limit>{});
     if (!settings)
         return fail(exitUsage, settings.error().message);

@@ -2,8 +2,10 @@
 
 #include "exitstatus.h"
 
+#include "commandline.h"
 #include "dailyrun.h"
-#include "varoptions.h"
+#include "optiongroups.h"
+#include "optiontext.h"
 
 #include "document/currencycode.h"
 #include "document/workbookfile.h"
@@ -68,108 +70,121 @@ std::optional<std::string> readBacktestOption(const std::string &option, const s
     return std::nullopt;
 }
 
-} // namespace
 
-std::string packHelpText()
-{
-    return R"(tailwise-cli pack: make a workbook from a price history and holdings
+const char *packAbout = R"(tailwise-cli pack: make a workbook from a price history and holdings
 
 Usage:
   tailwise-cli pack --prices FILE --holdings FILE [assumption options] [--title T]
                     [--currency CODE] --out FILE.tailwise
 
-  --prices FILE        daily price history, CSV (as for tailwise-cli var)
-  --holdings FILE      holdings, CSV (as for tailwise-cli var)
-  --title T            the workbook's title, shown in the window and on reports
-  --currency CODE      the currency the prices and values are in, three capital letters
-                       (e.g. EUR, GBP, USD); named beside money figures and on money axes.
-                       Only a label: nothing is converted. Not stated when not given
-  --out FILE           the workbook to write (JSON, extension .tailwise); written atomically,
-                       an existing file is replaced only when the new one is complete
-  --backtest-window W  the window's backtest settings, stored when any of these three is given:
-  --backtest-test-size A   rolling window of W returns (default 250), test size of the verdicts
-  --backtest-models LIST   (default 0.05) and the models, comma-separated, the first one drawn
-                       and the others compared with it (default normal)
-  --scenario FILE      a stress scenario to keep in the workbook (CSV asset,shock as for
-                       tailwise-cli var; named by the file name without folder and extension);
-                       repeatable, kept in the order given, names must differ
-  --limit SPEC         a limit on VaR or ES to keep in the workbook, checked at every run;
-                       repeatable: MEASURE=AMOUNT[%][,warn=W%][,group=NAME], MEASURE var or es,
-                       AMOUNT money or percent of value (%), warning level 80% unless stated
+The assumptions are stored in the workbook, which then carries the whole analysis:
+  tailwise-cli var --workbook FILE.tailwise)";
 
-The assumption options are those of tailwise-cli var (--confidence, --horizon, --window,
---estimator, ...); they are stored in the workbook, which then carries the whole analysis:
-  tailwise-cli var --workbook FILE.tailwise
-
-Exit status: 0 written, 1 bad input data or the file could not be written, 2 bad usage.
+const char *packClosing = R"(Exit status: 0 written, 1 bad input data or the file could not be written, 2 bad usage.
 )";
+
+struct PackOptions {
+    InputOptions inputs;
+    AssumptionOptions assumptions;
+    ModelOptions model;
+    WhatIfOptions kept; // --scenario
+    std::string title, out;
+    std::optional<std::string> currency, backtestWindow, backtestTestSize, backtestModels;
+    std::vector<std::string> limits; // --limit, stored in the workbook (dailyrun.h)
+    OutputOptions output;
+};
+
+void declare(CommandLine &line, PackOptions &o)
+{
+    declareInputOptions(line, o.inputs, Command::Pack);
+    declareAssumptionOptions(line, o.assumptions, Command::Pack);
+    declareModelOptions(line, o.model, Command::Pack);
+    declareWhatIfOptions(line, o.kept, Command::Pack);
+    line.section("Workbook");
+    line.value("--title", o.title, "T", "the workbook's title, shown in the window and on reports");
+    line.value("--currency", o.currency, "CODE",
+               "the currency the prices and values are in, three capital letters\n"
+               "(e.g. EUR, GBP, USD); named beside money figures and on money axes.\n"
+               "Only a label: nothing is converted. Not stated when not given");
+    line.value("--backtest-window", o.backtestWindow, "W",
+               "the window's backtest settings, stored when any of these three is\ngiven: rolling window of W returns (default 250),");
+    line.value("--backtest-test-size", o.backtestTestSize, "A", "test size of the verdicts (default 0.05)");
+    line.value("--backtest-models", o.backtestModels, "LIST",
+               "the models, comma-separated, the first one drawn and the others\ncompared with it (default normal)");
+    line.repeatable("--limit", o.limits, "SPEC",
+                    "a limit on VaR or ES to keep in the workbook, checked at every run:\n"
+                    "MEASURE=AMOUNT[%][,warn=W%][,group=NAME], MEASURE var or es, AMOUNT\n"
+                    "money or percent of value (%), warning level 80% unless stated");
+    declareOutputOptions(line, o.output, Command::Pack);
+    line.value("--out", o.out, "FILE",
+               "the workbook to write (JSON, extension .tailwise); written atomically,\n"
+               "an existing file is replaced only when the new one is complete");
+}
+
+} // namespace
+
+std::string packHelpText()
+{
+    PackOptions o;
+    CommandLine line("pack", packAbout, packClosing);
+    declare(line, o);
+    return line.help();
 }
 
 int runPackCommand(const std::vector<std::string> &args)
 {
-    std::vector<std::string> varArgs;
-    std::string title, out;
-    QString currency;
-    std::optional<ui::BacktestSettings> backtest;
-    std::vector<std::string> scenarioPaths;
-    DailyOptions daily; // --limit, stored in the workbook
-    for (std::size_t i = 0; i < args.size(); ++i) {
-        const std::string &option = args[i];
-        if (option == "--help" || option == "-h") {
-            std::fputs(packHelpText().c_str(), stdout);
-            return exitOk;
-        }
-        if (option == "--title" || option == "--out") {
-            if (i + 1 >= args.size())
-                return fail(exitUsage, option + ": expected a value after the option");
-            (option == "--title" ? title : out) = args[++i];
-            continue;
-        }
-        if (option == "--currency") {
-            if (i + 1 >= args.size())
-                return fail(exitUsage, option + ": expected a value after the option");
-            auto code = ui::parseCurrencyCode(QString::fromStdString(args[++i]), option);
-            if (!code)
-                return fail(exitUsage, code.error().message);
-            currency = code.value();
-            continue;
-        }
-        if (option == "--backtest-window" || option == "--backtest-test-size" || option == "--backtest-models") {
-            if (i + 1 >= args.size())
-                return fail(exitUsage, option + ": expected a value after the option");
-            if (!backtest)
-                backtest = ui::BacktestSettings{};
-            if (const auto problem = readBacktestOption(option, args[++i], *backtest))
-                return fail(exitUsage, *problem);
-            continue;
-        }
-        if (option == "--limit") {
-            if (i + 1 >= args.size())
-                return fail(exitUsage, option + ": expected a limit such as var=250000 after the option");
-            daily.limits.push_back(args[++i]);
-            continue;
-        }
-        if (option == "--scenario") {
-            if (i + 1 >= args.size())
-                return fail(exitUsage, option + ": expected a scenario file (CSV) after the option");
-            scenarioPaths.push_back(args[++i]);
-            continue;
-        }
-        // Outputs and one-off questions (what-if trades, the worst days) are not part of a workbook.
-        if (option == "--json" || option == "--workbook" || option == "--value" || option == "--volatility"
-            || option == "--drift" || option == "--trade" || option == "--worst-days")
-            return fail(exitUsage, option + ": not an option of pack (see tailwise-cli pack --help)");
-        varArgs.push_back(option);
+    PackOptions o;
+    CommandLine line("pack", packAbout, packClosing);
+    declare(line, o);
+    if (auto ok = line.parse(args); !ok)
+        return fail(exitUsage, ok.error().message);
+    if (line.helpWanted()) {
+        std::fputs(line.help().c_str(), stdout);
+        return exitOk;
     }
-    auto request = parseVarOptions(varArgs);
-    if (!request)
-        return fail(exitUsage, request.error().message);
-    if (out.empty())
-        return fail(exitUsage, "--out: expected the workbook file to write (e.g. --out fund.tailwise)");
-    const VarRequest &req = request.value();
+    Assumptions assumptions;
+    if (auto ok = applyAssumptionOptions(o.assumptions, assumptions); !ok)
+        return fail(exitUsage, ok.error().message);
+    if (auto ok = applyModelOptions(o.model, assumptions, Command::Pack); !ok)
+        return fail(exitUsage, ok.error().message);
+    if (auto ok = checkAssumptions(assumptions); !ok)
+        return fail(exitUsage, ok.error().message);
+    if (auto ok = checkModelParameters(o.model, assumptions, Command::Pack); !ok)
+        return fail(exitUsage, ok.error().message);
+    if (auto ok = checkInputOptions(o.inputs, Command::Pack); !ok)
+        return fail(exitUsage, ok.error().message);
+    QString currency;
+    if (o.currency) {
+        auto code = ui::parseCurrencyCode(QString::fromStdString(*o.currency), "--currency");
+        if (!code)
+            return fail(exitUsage, code.error().message);
+        currency = code.value();
+    }
+    std::optional<ui::BacktestSettings> backtest;
+    for (const auto &[option, text] : {std::pair{"--backtest-window", &o.backtestWindow},
+                                       std::pair{"--backtest-test-size", &o.backtestTestSize},
+                                       std::pair{"--backtest-models", &o.backtestModels}}) {
+        if (!*text)
+            continue;
+        if (!backtest)
+            backtest = ui::BacktestSettings{};
+        if (const auto problem = readBacktestOption(option, **text, *backtest))
+            return fail(exitUsage, *problem);
+    }
+    DailyOptions daily;
+    daily.limits = o.limits;
     const auto limits = applyDailyOptions(daily, {});
     if (!limits)
         return fail(exitUsage, limits.error().message);
+    if (o.out.empty())
+        return fail(exitUsage, "--out: expected the workbook file to write (e.g. --out fund.tailwise)");
+    const std::vector<std::string> &scenarioPaths = o.kept.scenarios;
+    const std::string title = o.title;
+    const std::string out = o.out;
+    struct {
+        std::string pricesPath, holdingsPath;
+        Assumptions assumptions;
+    } req{o.inputs.prices, o.inputs.holdings, assumptions};
 
     auto prices = readPriceCsv(req.pricesPath);
     if (!prices)

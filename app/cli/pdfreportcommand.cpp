@@ -2,6 +2,7 @@
 
 #include "exitstatus.h"
 
+#include "commandline.h"
 #include "guiapplication.h"
 #include "optiontext.h"
 #include "workbookinput.h"
@@ -28,27 +29,39 @@ struct PdfReportOptions {
     std::string out;
 };
 
+const char *reportAbout = R"(tailwise-cli report: the PDF report of a workbook
+
+Usage:
+  tailwise-cli report WORKBOOK --out FILE.pdf
+
+Writes the report the window's File > Export Report... makes: the headline figures, the loss tail,
+what drives the risk, horizon and confidence, the backtest (when the workbook sets one), the models
+compared, every assumption, and the cautions; with the workbook's name, the date and page numbers
+on every page. Figures come from the workbook's stored assumptions. Needs no display.)";
+
+const char *reportClosing = R"(Exit status: 0 written, 1 the workbook cannot be read or gives no figures, or the PDF cannot be
+written, 2 bad usage.
+)";
+
+void declare(CommandLine &line, PdfReportOptions &o)
+{
+    line.positional("WORKBOOK", o.workbook);
+    line.section("Options");
+    line.value("--out,-o", o.out, "FILE.pdf", "the PDF to write (replaced only once it is complete)");
+    line.flag("--help", o.help, "this text");
+}
+
 Result<PdfReportOptions> parse(const std::vector<std::string> &args)
 {
     PdfReportOptions o;
-    for (std::size_t i = 0; i < args.size(); ++i) {
-        const std::string &a = args[i];
-        if (a == "--help" || a == "-h") {
-            o.help = true;
-        } else if (a == "--out" || a == "-o") {
-            if (i + 1 >= args.size())
-                return usage("--out", "expected the PDF file to write, e.g. --out report.pdf");
-            o.out = args[++i];
-        } else if (a.rfind("--", 0) == 0) {
-            return usage(a, "unknown option for report (expected --out FILE.pdf; see tailwise-cli report --help)");
-        } else if (o.workbook.empty()) {
-            o.workbook = a;
-        } else {
-            return usage("report", "expected one workbook, found a second: \"" + a + "\"");
-        }
-    }
-    if (o.help)
+    CommandLine line("report", reportAbout, reportClosing);
+    declare(line, o);
+    if (auto ok = line.parse(args); !ok)
+        return ok.error();
+    if (line.helpWanted()) {
+        o.help = true;
         return o;
+    }
     if (o.workbook.empty())
         return usage("report", "expected the workbook to report on: tailwise-cli report WORKBOOK --out FILE.pdf");
     if (o.out.empty())
@@ -60,23 +73,10 @@ Result<PdfReportOptions> parse(const std::vector<std::string> &args)
 
 std::string pdfReportHelpText()
 {
-    return R"(tailwise-cli report: the PDF report of a workbook
-
-Usage:
-  tailwise-cli report WORKBOOK --out FILE.pdf
-
-Writes the report the window's File > Export Report... makes: the headline figures, the loss tail,
-what drives the risk, horizon and confidence, the backtest (when the workbook sets one), the models
-compared, every assumption, and the cautions; with the workbook's name, the date and page numbers
-on every page. Figures come from the workbook's stored assumptions. Needs no display.
-
-Options:
-  --out FILE.pdf, -o FILE.pdf   the PDF to write (replaced only once it is complete)
-  --help                        this text
-
-Exit status: 0 written, 1 the workbook cannot be read or gives no figures, or the PDF cannot be
-written, 2 bad usage.
-)";
+    PdfReportOptions o;
+    CommandLine line("report", reportAbout, reportClosing);
+    declare(line, o);
+    return line.help();
 }
 
 int runPdfReportCommand(const std::vector<std::string> &args)

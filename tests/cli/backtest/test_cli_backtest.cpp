@@ -107,6 +107,7 @@ private slots:
     void badInputAndUsage_data();
     void badInputAndUsage();
     void help();
+    void workbookGivesTheSameBacktest();
 };
 
 void TestCliBacktest::jsonEqualsFixture_data()
@@ -259,6 +260,32 @@ void TestCliBacktest::help()
     for (const char *option : {"--prices", "--holdings", "--window", "--confidence", "--model", "--dof", "--estimator",
                                "--lambda", "--mean", "--returns", "--json", "--series", "--help", "not the worst case"})
         QVERIFY2(r.out.contains(QString::fromLatin1(option)), option);
+}
+
+// --workbook: the sample workbook (samples/larchmere.tailwise) holds the sample CSV files, the
+// default assumptions and a backtest window of 250: the same backtest as from the CSV files, and
+// an option given overrides the stored value.
+void TestCliBacktest::workbookGivesTheSameBacktest()
+{
+    const QString samples = QStringLiteral(TAILWISE_SOURCE_DIR) + "/samples/";
+    const Run fromWorkbook = runCli({"backtest", "--workbook", samples + "larchmere.tailwise", "--json"});
+    const Run fromCsv = runCli({"backtest", "--prices", samples + "prices.csv", "--holdings", samples + "holdings.csv",
+                                "--window", "250", "--json"});
+    QCOMPARE(fromWorkbook.exitCode, 0);
+    QCOMPARE(fromCsv.exitCode, 0);
+    QCOMPARE(fromWorkbook.out, fromCsv.out);
+    const Run shorter = runCli({"backtest", "--workbook", samples + "larchmere.tailwise", "--window", "100", "--json"});
+    const Run shorterCsv = runCli({"backtest", "--prices", samples + "prices.csv", "--holdings", samples + "holdings.csv",
+                                   "--window", "100", "--json"});
+    QCOMPARE(shorter.exitCode, 0);
+    QCOMPARE(shorter.out, shorterCsv.out);
+    // Both sources at once, or the window given twice: refused, naming the option.
+    const Run both = runCli({"backtest", "--workbook", samples + "larchmere.tailwise", "--prices", samples + "prices.csv"});
+    QCOMPARE(both.exitCode, 2);
+    QVERIFY2(both.err.contains("--workbook"), qPrintable(both.err));
+    const Run twice = runCli({"backtest", "--workbook", samples + "larchmere.tailwise", "--window", "100", "--window", "200"});
+    QCOMPARE(twice.exitCode, 2);
+    QVERIFY2(twice.err.contains("--window: given more than once"), qPrintable(twice.err));
 }
 
 QTEST_APPLESS_MAIN(TestCliBacktest)

@@ -313,6 +313,13 @@ std::vector<Case> catalogue()
     c.push_back(optionCase("option: unknown flag", {"--frobnicate", "3"}, exitUsage, {"--frobnicate", "unknown option"}));
     c.push_back(optionCase("option: missing value", {"--confidence"}, exitUsage, {"--confidence", "expected a value after the option"}));
     c.push_back(optionCase("option: stray argument", {"extra"}, exitUsage, {"extra", "unexpected argument"}));
+    // A single-valued option given twice is refused, not "the last one wins" (both values named).
+    c.push_back(optionCase("option: confidence twice", {"--confidence", "0.95", "--confidence", "0.99"}, exitUsage,
+                           {"--confidence", "given more than once", "\"0.95\"", "\"0.99\""}));
+    c.push_back(optionCase("option: window twice", {"--window", "5", "--window", "all"}, exitUsage,
+                           {"--window", "given more than once"}));
+    c.push_back(optionCase("option: prices twice", {"--prices", "@prices.csv"}, exitUsage, {"--prices", "given more than once"}));
+    c.push_back(optionCase("option: flag twice", {"--json", "--json"}, exitUsage, {"--json", "given more than once"}));
     c.push_back(optionCase("option: unknown return type", {"--returns", "weekly"}, exitUsage,
                            {"--returns", "expected 'simple' or 'log'"}));
     c.push_back(optionCase("option: unknown estimator", {"--estimator", "garch"}, exitUsage, {"--estimator", "expected 'sample'"}));
