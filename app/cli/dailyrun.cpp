@@ -128,6 +128,20 @@ void writeLimitsJson(JsonWriter &j, const std::vector<LimitUse> &uses)
     j.endArray();
 }
 
+std::string withStampJson(const std::string &json, const RunStamp &stamp)
+{
+    const std::size_t open = json.find('{');
+    if (open == std::string::npos)
+        return json;
+    JsonWriter j;
+    j.beginObject();
+    writeStampJson(j, stamp);
+    j.endObject();
+    const std::string keys = j.text(); // "{\n  \"tool_version\": …\n}"
+    const std::size_t first = keys.find('\n'), last = keys.rfind('\n');
+    return json.substr(0, open + 1) + keys.substr(first, last - first) + "," + json.substr(open + 1);
+}
+
 std::string stampText(const RunStamp &stamp)
 {
     std::string out = "\nRun\n";

@@ -62,6 +62,8 @@ RunStamp makeStamp(const PriceHistory &prices, const Holdings &holdings, const A
 void writeStampJson(JsonWriter &j, const RunStamp &stamp);
 // "limits": [{measure, group, limit, warning_level, value, use, state}], group null for the book.
 void writeLimitsJson(JsonWriter &j, const std::vector<LimitUse> &uses);
+// The JSON object `json` (as printed, "{" first) with the stamp's keys first.
+std::string withStampJson(const std::string &json, const RunStamp &stamp);
 // A plain-text block: the stamp's lines and a limits table with each state in words.
 std::string stampText(const RunStamp &stamp);
 std::string limitsText(const std::vector<LimitUse> &uses, const std::string &currency);

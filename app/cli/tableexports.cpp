@@ -76,6 +76,25 @@ Status writeVarWorkbook(const std::string &path, const RiskReport &report, const
     return xlsx::writeXlsx(path, varTables(report, extras));
 }
 
+std::vector<xlsx::Table> backtestTables(const BacktestResult &result)
+{
+    using xlsx::CellKind;
+    const std::vector<xlsx::Column> columns{{"date", CellKind::Date},
+                                            {"pnl", CellKind::Money},
+                                            {"var", CellKind::Money},
+                                            {"exception", CellKind::Text},
+                                            {"loss_beyond_var", CellKind::Money}};
+    xlsx::Table exceptions{"Exceptions", columns, {}}, days{"Days", columns, {}};
+    for (const auto &d : result.days) {
+        std::vector<xlsx::Cell> row{toIso(d.date), d.pnl, d.var, std::string(d.exception ? "yes" : "no"),
+                                    d.exception ? xlsx::Cell(-d.pnl - d.var) : xlsx::Cell()};
+        if (d.exception)
+            exceptions.rows.push_back(row);
+        days.rows.push_back(std::move(row));
+    }
+    return {exceptions, days};
+}
+
 std::vector<HistoryRow> historyRows(const std::vector<store::RunRecord> &runs)
 {
     std::vector<HistoryRow> rows;

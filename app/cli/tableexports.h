@@ -5,6 +5,7 @@
 
 #include "varextras.h"
 
+#include "tailwise/backtest.h"
 #include "tailwise/risk.h"
 #include "tailwise/store/historystore.h"
 #include "tailwise/xlsx/tableexport.h"
@@ -16,6 +17,9 @@ namespace tailwise::cli {
 
 std::vector<xlsx::Table> varTables(const RiskReport &report, const ReportExtras &extras);
 Status writeVarWorkbook(const std::string &path, const RiskReport &report, const ReportExtras &extras);
+
+// The backtest's days and its exceptions, one sheet each.
+std::vector<xlsx::Table> backtestTables(const BacktestResult &result);
 
 // One row per run: workbook, as-of date, value, VaR, ES, realised P&L, change in VaR and ES from
 // the workbook's previous record and what changed, the worst limit state, hashes, version.
