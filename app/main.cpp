@@ -5,7 +5,7 @@
 //                                                picture of the whole window (≥ 1280×800), exits
 // Started for a person (not --screenshot), the window offers unsaved work that a session which
 // did not close cleanly left in a recovery file (recoveryoffer.h).
-#include "document/recomputescheduler.h"
+#include "document/resultsstore.h"
 #include "mainwindow.h"
 #include "panels/holdingseditor.h"
 
@@ -76,7 +76,7 @@ int main(int argc, char *argv[])
             return 2;
         window.resize(std::max(1280, window.width()), std::max(800, window.height()));
         window.show();
-        window.scheduler().computeNow();
+        window.results().computeNow(tailwise::ui::Part::Headline);
         // Let layouts and charts settle on the first figures before taking the picture.
         for (int i = 0; i < 5; ++i)
             QApplication::processEvents();

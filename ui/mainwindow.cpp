@@ -2,12 +2,12 @@
 
 #include "actions.h"
 #include "document/commands.h"
-#include "document/recomputescheduler.h"
+#include "document/resultsstore.h"
 #include "document/recoveryfile.h"
 #include "document/workbook.h"
 #include "document/workbookfile.h"
 #include "export/chartexporter.h"
-#include "export/reportjob.h"
+#include "export/reportexport.h"
 #include "panels/assumptionspane.h"
 #include "panels/cautionsnote.h"
 #include "panels/charttabs.h"
@@ -42,12 +42,12 @@ namespace {
 const char *kRecentKey = "recentFiles";
 constexpr int kMaxRecent = 8;
 constexpr int kStatusTimeoutMs = 10000;
+constexpr int reportJobKey = partCount; // the runner's key of the report job (after the parts')
 } // namespace
 
 MainWindow::MainWindow(QWidget *parent) : QMainWindow(parent)
 {
     m_workbook = new Workbook(this);
-    m_scheduler = new RecomputeScheduler(*m_workbook, this);
     m_actions = new Actions(m_workbook->undoStack(), this);
     m_actions->buildMenus(this);
     buildLayout();
@@ -55,12 +55,13 @@ MainWindow::MainWindow(QWidget *parent) : QMainWindow(parent)
 
     connect(m_workbook, &Workbook::filePathChanged, this, &MainWindow::updateTitle);
     connect(m_workbook, &Workbook::modifiedChanged, this, &MainWindow::updateTitle);
-    connect(m_workbook, &Workbook::computingChanged, this, &MainWindow::showComputing);
-    connect(m_scheduler, &RecomputeScheduler::progress, this,
-            [this](double fraction) {
-                m_progressBar->setRange(0, 100);
-                m_progressBar->setValue(static_cast<int>(fraction * 100.0));
-            });
+    connect(&m_workbook->results(), &ResultsStore::headlineRunning, this, &MainWindow::showComputing);
+    connect(&m_workbook->results(), &ResultsStore::progress, this, [this](Part part, double fraction) {
+        if (part != Part::Headline)
+            return;
+        m_progressBar->setRange(0, 100);
+        m_progressBar->setValue(static_cast<int>(fraction * 100.0));
+    });
     connect(m_holdings, &HoldingsEditor::statusMessage, this,
             [this](const QString &text) { statusBar()->showMessage(text, kStatusTimeoutMs); });
     // Unsaved work is kept in a recovery file of this window's own (recoveryfile.h); a failure to
@@ -70,6 +71,11 @@ MainWindow::MainWindow(QWidget *parent) : QMainWindow(parent)
             [this](const QString &text) { statusBar()->showMessage(text, 3 * kStatusTimeoutMs); });
     readSettings();
     updateTitle();
+}
+
+ResultsStore &MainWindow::results() const
+{
+    return m_workbook->results();
 }
 
 RecoveryOutcome MainWindow::offerRecovery(const RecoveryQuestion &ask)
@@ -106,7 +112,7 @@ void MainWindow::buildLayout()
     m_headline = new HeadlinePanel(*m_workbook);
     m_charts = new ChartTabs(*m_workbook);
     m_charts->setChartActions(m_actions->get(Actions::ExportChart), m_actions->get(Actions::CopyChart));
-    m_chartExporter = new ChartExporter(*m_workbook, *m_charts, this);
+    m_chartExporter = new ChartExporter(*m_workbook, this);
     connect(m_chartExporter, &ChartExporter::statusMessage, this,
             [this](const QString &text) { statusBar()->showMessage(text, kStatusTimeoutMs); });
     m_holdings = new HoldingsEditor(*m_workbook);
@@ -185,8 +191,14 @@ void MainWindow::connectActions()
     connect(a.get(Actions::DuplicateHolding), &QAction::triggered, m_holdings, &HoldingsEditor::duplicateSelected);
     connect(a.get(Actions::Paste), &QAction::triggered, m_holdings, &HoldingsEditor::pasteFromClipboard);
     connect(a.get(Actions::About), &QAction::triggered, this, &MainWindow::showAbout);
-    connect(a.get(Actions::ExportChart), &QAction::triggered, m_chartExporter, &ChartExporter::exportChart);
-    connect(a.get(Actions::CopyChart), &QAction::triggered, m_chartExporter, &ChartExporter::copyChart);
+    // The chart in view and the loss tail's unit are the window's to say; the exporter reads no widget.
+    auto unit = [this] { return m_charts->lossTailInPercent() ? LossTailUnit::PercentOfValue : LossTailUnit::Money; };
+    connect(a.get(Actions::ExportChart), &QAction::triggered, this, [this, unit] {
+        m_chartExporter->exportChart(m_charts->currentChartKind().value_or(ChartKind::LossTail), unit());
+    });
+    connect(a.get(Actions::CopyChart), &QAction::triggered, this, [this, unit] {
+        m_chartExporter->copyChart(m_charts->currentChartKind().value_or(ChartKind::LossTail), unit());
+    });
     connect(m_actions, &Actions::recentFileChosen, this, &MainWindow::openPath);
 }
 
@@ -208,13 +220,8 @@ void MainWindow::showComputing(bool computing)
 
 void MainWindow::cancelComputation()
 {
-    m_scheduler->cancel();
-    // The figures on screen belong to older inputs: replace them by the reason there are none.
-    m_workbook->publishResult(m_workbook->inputGeneration(),
-                              fieldError(ErrorKind::Cancelled, "model",
-                                         tr("the computation was stopped; change an input to run it again")
-                                             .toStdString()));
-    m_workbook->setComputing(false);
+    // The figures on screen stay, marked as those of older inputs (the headline says so).
+    m_workbook->results().cancel(Part::Headline);
     statusBar()->showMessage(tr("Computation stopped."), kStatusTimeoutMs);
 }
 
@@ -383,19 +390,24 @@ void MainWindow::exportReportWithDialog()
 void MainWindow::exportReportFile(const QString &path)
 {
     const QString file = m_workbook->filePath();
-    auto *job = new ReportJob(m_workbook->contents(), file.isEmpty() ? tr("Untitled") : QFileInfo(file).fileName(),
-                              path, this);
+    const QString name = file.isEmpty() ? tr("Untitled") : QFileInfo(file).fileName();
     QAction *action = m_actions->get(Actions::ExportReport);
     action->setEnabled(false); // one report at a time
-    connect(job, &ReportJob::finished, this, [this, action](const QString &pdf, const QString &problem, int pages) {
-        action->setEnabled(true);
-        if (!problem.isEmpty())
-            return showProblem(tr("Could not export the report"), problem);
-        statusBar()->showMessage(tr("Wrote the report to %1 (%2 pages).").arg(QDir::toNativeSeparators(pdf)).arg(pages),
-                                 kStatusTimeoutMs);
-    });
     statusBar()->showMessage(tr("Writing the report…"));
-    job->start();
+    // The figures are computed on a pool thread from a copy of the inputs; the pages are then
+    // drawn here, on the GUI thread (reportexport.h).
+    auto contents = std::make_shared<WorkbookContents>(m_workbook->contents());
+    m_workbook->results().runner().start<ReportData>(
+        reportJobKey, JobRunner::Where::Background,
+        [contents](const RunControl &) -> Result<ReportData> { return computeReportData(*contents); },
+        [this, action, name, path](Result<ReportData> data) {
+            action->setEnabled(true);
+            const auto written = writeReport(data.value(), name, path);
+            if (!written)
+                return showProblem(tr("Could not export the report"), QString::fromStdString(written.error().message));
+            statusBar()->showMessage(tr("Wrote the report to %1 (%2 pages).").arg(QDir::toNativeSeparators(path)).arg(written.value()),
+                                     kStatusTimeoutMs);
+        });
 }
 
 void MainWindow::showAbout()
@@ -451,7 +463,7 @@ void MainWindow::closeEvent(QCloseEvent *event)
         return;
     }
     writeSettings();
-    m_scheduler->cancel();
+    m_workbook->results().runner().stopAll();
     m_recovery->discard(); // saved or discarded by the user: nothing left to recover
     event->accept();
 }

@@ -1,5 +1,5 @@
 // MainWindow: composes the panels around one Workbook and runs the file commands. It owns no
-// data logic: edits are the panels' (through commands.h), figures the scheduler's (through core).
+// data logic: edits are the panels' (through commands.h), figures the results store's (document/resultsstore.h).
 //
 // Layout: the assumptions down the left; on the right the headline figures, the charts below
 // them and the holdings table at the bottom (the two in a splitter); the cautions note along the
@@ -23,7 +23,7 @@ class ChartExporter;
 class ChartTabs;
 class HeadlinePanel;
 class HoldingsEditor;
-class RecomputeScheduler;
+class ResultsStore;
 class RecoveryFile;
 class Workbook;
 
@@ -34,7 +34,8 @@ public:
     ~MainWindow() override;
 
     Workbook &workbook() const { return *m_workbook; }
-    RecomputeScheduler &scheduler() const { return *m_scheduler; }
+    // Every figure of the workbook (its results store).
+    ResultsStore &results() const;
     Actions &actions() const { return *m_actions; }
     HoldingsEditor *holdingsEditor() const { return m_holdings; }
     AssumptionsPane *assumptionsPane() const { return m_assumptions; }
@@ -54,7 +55,7 @@ public:
     // Refuses, and changes nothing, when the file has errors (the message names line and column)
     // or lacks an asset that is held (the message names them).
     QString importPriceHistoryFile(const QString &path);
-    // Starts writing the workbook's PDF report to `path` (ReportJob); the status line says when it
+    // Starts writing the workbook's PDF report to `path` (a job on the results store's runner); the status line says when it
     // is written, a message box why not.
     void exportReportFile(const QString &path);
 
@@ -86,7 +87,6 @@ private:
     void writeSettings() const;
 
     Workbook *m_workbook = nullptr;
-    RecomputeScheduler *m_scheduler = nullptr;
     Actions *m_actions = nullptr;
     HoldingsEditor *m_holdings = nullptr;
     AssumptionsPane *m_assumptions = nullptr;

@@ -10,7 +10,7 @@
 // holdings-1000.csv, holdings-200.csv) for tests/perf/side_by_side.py, which times the same work
 // in NumPy and pandas; `--json` prints the figures as one JSON object; `--repeat N` sets the runs.
 // Nothing here is real data and nothing is checked.
-#include "document/recomputescheduler.h"
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "mainwindow.h"
 #include "models/holdingsmodel.h"
@@ -148,7 +148,7 @@ EditFigures editToHeadline(const PriceHistory &history, int holdings, int repeat
     c.holdings = firstHoldings(history, holdings);
     ui::MainWindow window;
     window.workbook().resetContents(c, QString());
-    window.scheduler().computeNow();
+    window.results().computeNow(tailwise::ui::Part::Headline);
     ui::HoldingsModel *model = window.holdingsEditor()->model();
     auto *headline = window.findChild<QLabel *>(QStringLiteral("varMoney"));
     double quantity = 1000.0;
@@ -156,7 +156,7 @@ EditFigures editToHeadline(const PriceHistory &history, int holdings, int repeat
     auto edit = [&] {
         quantity += 1.0;
         model->setData(model->index(holdings / 2, ui::HoldingsModel::QuantityColumn), quantity);
-        window.scheduler().computeNow(); // what the zero-delay timer runs on the next turn
+        window.results().computeNow(tailwise::ui::Part::Headline); // what the zero-delay timer runs on the next turn
         shown = headline->text();
     };
     edit(); // the first edit after opening fills the estimate cache
@@ -164,9 +164,8 @@ EditFigures editToHeadline(const PriceHistory &history, int holdings, int repeat
     out.editMs = timeMedian(std::max(repeat, 5), edit);
     if (shown.isEmpty())
         std::fprintf(stderr, "bench_stages: the headline stayed empty\n");
-    auto report = computeRisk(window.workbook().prices(), window.workbook().holdings(), window.workbook().assumptions());
     out.screenMs = timeMedian(std::max(repeat, 5), [&] {
-        window.workbook().publishResult(window.workbook().inputGeneration(), report);
+        emit window.results().headlineChanged(); // what a new headline result makes every view do
     });
     return out;
 }

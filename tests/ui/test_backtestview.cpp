@@ -1,5 +1,5 @@
 // The backtest in the window: the chart's data (ui/charts/backtestchartdata.h), the background
-// runner (ui/document/backtestrunner.h), the view (ui/panels/backtestview.h) and the backtest
+// results store (ui/document/resultsstore.h), the view (ui/panels/backtestview.h) and the backtest
 // settings in the workbook file. Every figure checked here is core's (runBacktest, verdictAt),
 // which tests/core and tests/cli check against the NumPy fixture of the real data set and the
 // published tables (REFERENCE-VALUES.md); these tests check that the window shows exactly those.
@@ -7,11 +7,11 @@
 
 #include "charts/backtestchart.h"
 #include "charts/backtestchartdata.h"
-#include "document/backtestrunner.h"
 #include "document/commands.h"
 #include "document/workbook.h"
 #include "document/workbookfile.h"
-#include "document/recomputescheduler.h"
+#include "document/backtestrequest.h"
+#include "document/resultsstore.h"
 #include "mainwindow.h"
 #include "panels/backtestview.h"
 #include "panels/charttabs.h"
@@ -27,6 +27,7 @@
 #include <QSpinBox>
 #include <QTabWidget>
 #include <QTableWidget>
+#include <QPushButton>
 #include <QTest>
 #include <QUndoStack>
 
@@ -50,7 +51,7 @@ WorkbookContents sampleContents()
 
 BacktestResult coreBacktest(const Workbook &wb, const BacktestSettings &s, RiskModel model)
 {
-    auto r = runBacktest(BacktestRunner::requestFor(wb, s, model));
+    auto r = runBacktest(backtestRequestFor(wb.contents(), s, model));
     if (!r)
         qFatal("runBacktest: %s", r.error().message.c_str());
     return r.value();
@@ -130,7 +131,7 @@ void TestBacktestView::requestUsesTheSettingsAndOneDay()
     wb.resetContents(sampleContents(), {});
     BacktestSettings s;
     s.window = 321;
-    const BacktestRequest q = BacktestRunner::requestFor(wb, s, RiskModel::Historical);
+    const BacktestRequest q = backtestRequestFor(wb.contents(), s, RiskModel::Historical);
     QCOMPARE(q.assumptions.window, std::optional<int>(321));
     QCOMPARE(q.assumptions.model, RiskModel::Historical);
     QCOMPARE(q.assumptions.horizonDays, 1); // the workbook's horizon is 10: a backtest is of one-day VaR
@@ -145,8 +146,8 @@ void TestBacktestView::viewShowsZoneAndVerdictForTheSample()
     Workbook wb;
     wb.resetContents(loaded.value(), samplePath());
     BacktestView view(wb);
-    view.runner().runNow();
-    QCOMPARE(view.runner().state(), BacktestRunner::State::Finished);
+    wb.results().computeNow(Part::Backtest);
+    QCOMPARE(wb.results().state(Part::Backtest), PartState::Ready);
 
     const BacktestSettings s = wb.backtestSettings();
     const BacktestResult r = coreBacktest(wb, s, s.models.front());
@@ -176,7 +177,7 @@ void TestBacktestView::comparisonRowsEqualCore()
     BacktestView view(wb);
     view.compareField()->setChecked(true); // an edit: all models from now on
     QCOMPARE(wb.backtestSettings().models.size(), backtestModels().size());
-    view.runner().runNow();
+    wb.results().computeNow(Part::Backtest);
     QTableWidget *t = view.comparisonTable();
     QVERIFY(t->parentWidget()->isVisibleTo(&view));
     QCOMPARE(t->rowCount(), int(backtestModels().size()));
@@ -189,7 +190,7 @@ void TestBacktestView::comparisonRowsEqualCore()
         QVERIFY2(!t->item(i, 5)->text().isEmpty(), "a zone for every model");
     }
     view.compareField()->setChecked(false);
-    view.runner().runNow();
+    wb.results().computeNow(Part::Backtest);
     QVERIFY(!t->parentWidget()->isVisibleTo(&view));
 }
 
@@ -198,12 +199,12 @@ void TestBacktestView::testSizeChangesTheVerdictWithoutRerunning()
     Workbook wb;
     wb.resetContents(sampleContents(), {});
     BacktestView view(wb);
-    view.runner().runNow();
-    const quint64 generation = view.runner().generation();
+    wb.results().computeNow(Part::Backtest);
+    const quint64 generation = wb.results().backtest().generation;
     view.testSizeField()->setValue(10.0);
     QCOMPARE(wb.backtestSettings().testSize, 0.10);
-    QCOMPARE(view.runner().generation(), generation); // the same results, read at 10 %
-    QCOMPARE(view.runner().state(), BacktestRunner::State::Finished);
+    QCOMPARE(wb.results().backtest().generation, generation); // the same results, read at 10 %
+    QCOMPARE(wb.results().state(Part::Backtest), PartState::Ready);
     QVERIFY2(view.verdictText().contains(QStringLiteral("10%")), qPrintable(view.verdictText()));
 }
 
@@ -212,28 +213,35 @@ void TestBacktestView::changingTheWindowRerunsAndDropsTheStaleResult()
     Workbook wb;
     wb.resetContents(sampleContents(), {});
     BacktestView view(wb);
-    view.runner().setDelay(0);
-    view.runner().runNow();
-    QCOMPARE(view.runner().run().models.front().result->value().window, 250);
+    wb.results().setDelay(Part::Backtest, 0);
+    wb.results().computeNow(Part::Backtest);
+    QCOMPARE(wb.results().backtest().models.front().result->value().window, 250);
 
     // Every result the view is told about from here on.
     QList<int> windowsSeen;
-    connect(&view.runner(), &BacktestRunner::resultsChanged, this, [&] {
-        for (const auto &m : view.runner().run().models)
+    // (figures are shown as current only while the part runs or is ready; when it goes out of
+    // date it keeps the last complete run, marked so, which the view does not show)
+    connect(&wb.results(), &ResultsStore::backtestChanged, this, [&] {
+        const PartState state = wb.results().state(Part::Backtest);
+        if (state != PartState::Running && state != PartState::Ready)
+            return;
+        for (const auto &m : wb.results().backtest().models)
             if (m.result && m.result->ok())
                 windowsSeen << m.result->value().window;
     });
-    // A background job for W = 250, then at once (before its result can be delivered) W = 300:
+    // A background job for W = 260, then at once (before its result can be delivered) W = 300:
     // whatever the first job posts arrives after the change and must be dropped.
-    view.runner().start();
+    wb.results().setWatched(Part::Backtest, true); // as when its tab is in view
+    view.windowField()->setValue(260);
+    QTRY_COMPARE_WITH_TIMEOUT(wb.results().state(Part::Backtest), PartState::Running, 5000);
     view.windowField()->setValue(300);
     QCOMPARE(wb.backtestSettings().window, 300);
-    QCOMPARE(view.runner().state(), BacktestRunner::State::Running);
-    QTRY_COMPARE_WITH_TIMEOUT(view.runner().state(), BacktestRunner::State::Finished, 30000);
+    QVERIFY(wb.results().state(Part::Backtest) != PartState::Ready);
+    QTRY_COMPARE_WITH_TIMEOUT(wb.results().state(Part::Backtest), PartState::Ready, 30000);
     QVERIFY(!windowsSeen.isEmpty());
     for (int w : windowsSeen)
         QCOMPARE(w, 300);
-    const BacktestResult shown = view.runner().run().models.front().result->value();
+    const BacktestResult shown = wb.results().backtest().models.front().result->value();
     const BacktestResult want = coreBacktest(wb, wb.backtestSettings(), RiskModel::Normal);
     QCOMPARE(shown.observations, want.observations);
     QCOMPARE(shown.exceptions, want.exceptions);
@@ -243,9 +251,9 @@ void TestBacktestView::changingTheWindowRerunsAndDropsTheStaleResult()
     Holding h = wb.holdings().front();
     h.quantity *= 2.0;
     edit::setHolding(wb, 0, h, QStringLiteral("Double"));
-    QCOMPARE(view.runner().state(), BacktestRunner::State::Running);
-    QVERIFY(!view.runner().run().models.front().result); // the old figures are gone at once
-    QTRY_COMPARE_WITH_TIMEOUT(view.runner().state(), BacktestRunner::State::Finished, 30000);
+    QCOMPARE(wb.results().state(Part::Backtest), PartState::OutOfDate);
+    QVERIFY(!view.messageText().isEmpty()); // the old figures are no longer shown as current
+    QTRY_COMPARE_WITH_TIMEOUT(wb.results().state(Part::Backtest), PartState::Ready, 30000);
 }
 
 void TestBacktestView::cancelShowsNothingAndRunAgainWorks()
@@ -253,19 +261,19 @@ void TestBacktestView::cancelShowsNothingAndRunAgainWorks()
     Workbook wb;
     wb.resetContents(sampleContents(), {});
     BacktestView view(wb);
-    view.runner().setDelay(0);
+    wb.results().setDelay(Part::Backtest, 0);
     view.compareField()->setChecked(true);
-    view.runner().start();
-    QCOMPARE(view.runner().state(), BacktestRunner::State::Running);
-    view.runner().cancel();
-    QCOMPARE(view.runner().state(), BacktestRunner::State::Cancelled);
+    wb.results().request(Part::Backtest);
+    QCOMPARE(wb.results().state(Part::Backtest), PartState::Running);
+    view.stopButton()->click();
+    QCOMPARE(wb.results().state(Part::Backtest), PartState::OutOfDate);
     QTest::qWait(300); // anything the stopped job still posts is dropped
-    QCOMPARE(view.runner().state(), BacktestRunner::State::Cancelled);
-    for (const auto &m : view.runner().run().models)
-        QVERIFY(!m.result);
+    QCOMPARE(wb.results().state(Part::Backtest), PartState::OutOfDate);
+    for (const auto &m : wb.results().backtest().models)
+        QVERIFY(!m.result); // no complete run before this one: nothing, never a part of the stopped one
     QVERIFY2(view.messageText().contains(QStringLiteral("stopped")), qPrintable(view.messageText()));
-    view.runner().start();
-    QTRY_COMPARE_WITH_TIMEOUT(view.runner().state(), BacktestRunner::State::Finished, 30000);
+    wb.results().request(Part::Backtest); // "Run again"
+    QTRY_COMPARE_WITH_TIMEOUT(wb.results().state(Part::Backtest), PartState::Ready, 30000);
     QVERIFY(view.messageText().isEmpty());
 }
 
@@ -275,7 +283,7 @@ void TestBacktestView::tooLongWindowSaysSo()
     wb.resetContents(sampleContents(), {});
     BacktestView view(wb);
     view.windowField()->setValue(5000); // the sample has 779 returns
-    view.runner().runNow();
+    wb.results().computeNow(Part::Backtest);
     QVERIFY2(view.messageText().contains(QStringLiteral("could not run")), qPrintable(view.messageText()));
     QVERIFY2(view.messageText().contains(QStringLiteral("window")), qPrintable(view.messageText()));
 }
@@ -381,7 +389,7 @@ void TestBacktestView::picture()
     wb.resetContents(loaded.value(), samplePath());
     BacktestView view(wb);
     view.resize(1240, 640);
-    view.runner().runNow();
+    wb.results().computeNow(Part::Backtest);
     view.show();
     QVERIFY(QTest::qWaitForWindowExposed(&view));
     QTest::qWait(50);
@@ -400,7 +408,7 @@ void TestBacktestView::windowHasTheBacktestTab()
     window.resize(1280, 900);
     window.show();
     QVERIFY(QTest::qWaitForWindowExposed(&window));
-    window.scheduler().computeNow();
+    window.results().computeNow(Part::Headline);
     QTabWidget *tabs = window.chartTabs()->tabs();
     BacktestView *view = window.chartTabs()->backtestView();
     QVERIFY(view);
@@ -408,7 +416,7 @@ void TestBacktestView::windowHasTheBacktestTab()
     QVERIFY(index >= 0);
     QCOMPARE(tabs->tabText(index), QStringLiteral("Backtest"));
     tabs->setCurrentIndex(index);
-    view->runner().runNow();
+    window.workbook().results().computeNow(Part::Backtest);
     QVERIFY2(view->zoneText().contains(QStringLiteral(" zone")), qPrintable(view->messageText()));
     QTest::qWait(50);
     if (const QByteArray path = qgetenv("TAILWISE_BACKTEST_WINDOW_PICTURE"); !path.isEmpty())

@@ -15,6 +15,7 @@
 #include "panels/whatifpanel.h"
 #include "export/captions.h"
 #include "export/chartexportdialog.h"
+#include "document/resultsstore.h"
 #include "export/chartexporter.h"
 #include "panels/backtestview.h"
 #include "panels/charttabs.h"
@@ -73,12 +74,12 @@ void TestChartExportWindow::exporterWritesTheWindowsResults()
     QVERIFY(!results->modelsChart);
     QVERIFY(!chartUnavailableReason(ChartKind::Models, *results).isEmpty());
     window->chartTabs()->modelComparison()->computeNow();
-    window->chartTabs()->backtestView()->runner().runNow();
+    window->workbook().results().computeNow(Part::Backtest);
     results = exporter->currentResults();
     QVERIFY(results->modelsChart);
     QVERIFY(results->backtestChart);
     const QString caption = captionFor(ChartKind::LossTail, *results);
-    QVERIFY2(caption.contains(chartstyle::money(window->workbook().report()->figures.var)), qPrintable(caption));
+    QVERIFY2(caption.contains(chartstyle::money(window->workbook().results().report()->figures.var)), qPrintable(caption));
     // The workbook's currency goes with the results the exporter draws, on every money axis.
     QVERIFY(results->lossTail.xLabel.contains(QStringLiteral("(money;")));
     QVERIFY(edit::setCurrency(window->workbook(), QStringLiteral("EUR")).ok());

@@ -13,6 +13,7 @@
 #include "panels/localnumbers.h"
 #include "panels/modelcomparisonview.h"
 #include "panels/stresspanel.h"
+#include "document/resultsstore.h"
 #include "panels/whatifpanel.h"
 
 #include "tailwise/comparison.h"
@@ -85,7 +86,7 @@ private slots:
         ModelComparisonModel *m = view->model();
         QCOMPARE(m->rowCount(), 5);
         QCOMPARE(static_cast<int>(rows.size()), 5);
-        const double value = wb.report()->portfolioValue;
+        const double value = wb.results().report()->portfolioValue;
         const double normalVar = rows[0].figures->var;
         const double normalEs = rows[0].figures->es;
         for (int r = 0; r < 5; ++r) {
@@ -101,7 +102,7 @@ private slots:
             QVERIFY(!m->data(m->index(r, ModelComparisonModel::VarColumn)).toString().isEmpty());
         }
         // The normal row is the headline's figure (same assumptions, normal model).
-        expectSame(rows[0].figures->var, wb.report()->figures.var, "normal row vs headline");
+        expectSame(rows[0].figures->var, wb.results().report()->figures.var, "normal row vs headline");
         // Monte Carlo's row carries its standard error in the notes.
         QVERIFY(m->data(m->index(4, ModelComparisonModel::NoteColumn)).toString().contains(QStringLiteral("±")));
     }
@@ -123,7 +124,7 @@ private slots:
         const int woldsRow = 9;
         QCOMPARE(wb.holdings()[woldsRow].asset, std::string("WOLDS_UTILITIES"));
         edit::removeHoldings(wb, {woldsRow});
-        window->scheduler().computeNow();
+        window->results().computeNow(Part::Headline);
         const Holdings start = wb.holdings();
 
         WhatIfPanel *panel = window->chartTabs()->whatIfPanel();
@@ -136,7 +137,7 @@ private slots:
         expectSame(panel->result()->figures.varBefore, core.value().figures.varBefore, "VaR before");
         expectSame(panel->result()->figures.varAfter, core.value().figures.varAfter, "VaR after");
         expectSame(panel->result()->figures.marginalEstimate, core.value().figures.marginalEstimate, "marginal");
-        expectSame(panel->result()->figures.varBefore, wb.report()->figures.var, "VaR before vs headline");
+        expectSame(panel->result()->figures.varBefore, wb.results().report()->figures.var, "VaR before vs headline");
         // The ghost curve (the portfolio now) is drawn in the panel's loss tail.
         QVERIFY(!panel->chart()->data().overlays.isEmpty());
         QVERIFY(panel->chart()->data().overlays.front().ghost);
@@ -150,14 +151,14 @@ private slots:
         const int before = wb.undoStack()->count();
         QVERIFY(panel->apply());
         QCOMPARE(wb.undoStack()->count(), before + 1);
-        window->scheduler().computeNow();
+        window->results().computeNow(Part::Headline);
         const auto expectedHoldings = applyTrades(start, trades, wb.prices());
         QVERIFY(expectedHoldings.ok());
         const auto expected = computeRisk(wb.prices(), expectedHoldings.value(), wb.assumptions());
         QVERIFY(expected.ok());
-        QVERIFY(wb.report().has_value());
-        expectSame(wb.report()->figures.var, expected.value().figures.var, "headline VaR after apply");
-        expectSame(wb.report()->figures.var, core.value().figures.varAfter, "headline VaR vs what-if after");
+        QVERIFY(wb.results().report().has_value());
+        expectSame(wb.results().report()->figures.var, expected.value().figures.var, "headline VaR after apply");
+        expectSame(wb.results().report()->figures.var, core.value().figures.varAfter, "headline VaR vs what-if after");
         auto *varLabel = window->findChild<QLabel *>(QStringLiteral("varMoney"));
         QVERIFY(varLabel);
         QCOMPARE(varLabel->text(), moneyText(expected.value().figures.var));
@@ -194,6 +195,9 @@ private slots:
             {"Rates up: bonds -5%", {{"ASHGROVE_BOND_FUND", -0.05}}},
         };
         edit::setScenarios(wb, scenarios, QStringLiteral("Add scenarios"));
+        // Hidden, the stress tab costs nothing: its part waits, out of date, until it is needed.
+        QVERIFY(!wb.results().isReady(Part::Stress));
+        wb.results().computeNow(Part::Stress);
         StressPanel *panel = window->chartTabs()->stressPanel();
         const auto core = runStress(wb.prices(), wb.holdings(), wb.assumptions(), scenarios, StressPanel::worstDayCount);
         QVERIFY(core.ok());
@@ -238,6 +242,8 @@ private slots:
         QCOMPARE(wb.undoStack()->count(), count + 1);
         wb.undoStack()->undo();
         QCOMPARE(panel->scenarioList()->count(), 2);
+        // In view, the stress part is recomputed in the background after each change.
+        QTRY_VERIFY_WITH_TIMEOUT(wb.results().isReady(Part::Stress), 30000);
         QCOMPARE(static_cast<int>(panel->outcomes().size()), 2 + StressPanel::worstDayCount);
     }
 
@@ -324,27 +330,29 @@ private slots:
         QVERIFY(hs);
         hs->setCurrentIndex(hs->findData(int(HistoricalHorizon::Overlapping)));
         QCOMPARE(wb.assumptions().historicalHorizon, HistoricalHorizon::Overlapping);
-        window->scheduler().computeNow();
+        window->results().computeNow(Part::Headline);
         const auto expected = computeRisk(wb.prices(), wb.holdings(), wb.assumptions());
-        QVERIFY(expected.ok() && wb.report());
-        expectSame(wb.report()->figures.var, expected.value().figures.var, "historical overlapping VaR");
+        QVERIFY(expected.ok() && wb.results().report());
+        expectSame(wb.results().report()->figures.var, expected.value().figures.var, "historical overlapping VaR");
     }
 
     void monteCarloShowsProgressAndStops()
     {
         auto window = test::sampleWindow();
         Workbook &wb = window->workbook();
-        QSignalSpy progress(&window->scheduler(), &RecomputeScheduler::progress);
+        QSignalSpy progress(&wb.results(), &ResultsStore::progress);
         Assumptions a = wb.assumptions();
         a.model = RiskModel::MonteCarlo;
         a.simulations = 10000000; // long enough to be stopped half-way
         edit::setAssumptions(wb, a, QStringLiteral("Monte Carlo"));
-        QTRY_VERIFY_WITH_TIMEOUT(wb.isComputing(), 5000);
+        QTRY_VERIFY_WITH_TIMEOUT(wb.results().isRunning(Part::Headline), 5000);
         QTRY_VERIFY_WITH_TIMEOUT(!progress.isEmpty(), 30000);
-        const double first = progress.first().first().toDouble();
+        QCOMPARE(progress.first().first().value<Part>(), Part::Headline);
+        const double first = progress.first().at(1).toDouble();
         QVERIFY(first >= 0.0 && first < 1.0);
-        window->scheduler().cancel();
-        QVERIFY(!window->scheduler().isRunningInBackground());
+        wb.results().cancel(Part::Headline);
+        QVERIFY(!wb.results().runner().isRunning(static_cast<int>(Part::Headline)));
+        QCOMPARE(wb.results().state(Part::Headline), PartState::OutOfDate);
         const quint64 generation = wb.inputGeneration();
         QTest::qWait(200);
         QCOMPARE(wb.inputGeneration(), generation);
@@ -352,10 +360,10 @@ private slots:
         // A short run in the background gives core's figures.
         a.simulations = 20000;
         edit::setAssumptions(wb, a, QStringLiteral("fewer draws"));
-        QTRY_VERIFY_WITH_TIMEOUT(!wb.isComputing() && wb.report().has_value(), 60000);
+        QTRY_VERIFY_WITH_TIMEOUT(wb.results().isReady(Part::Headline), 60000);
         const auto expected = computeRisk(wb.prices(), wb.holdings(), wb.assumptions());
         QVERIFY(expected.ok());
-        expectSame(wb.report()->figures.var, expected.value().figures.var, "Monte Carlo VaR, same seed");
+        expectSame(wb.results().report()->figures.var, expected.value().figures.var, "Monte Carlo VaR, same seed");
     }
 
     void overlayDrawsOtherModels()
@@ -363,6 +371,10 @@ private slots:
         auto window = test::sampleWindow();
         ChartTabs *tabs = window->chartTabs();
         tabs->modelOverlayOption()->setChecked(true);
+        // The other models' curves come from the results store, computed off the GUI thread.
+        ResultsStore &results = window->workbook().results();
+        QVERIFY(results.isRunning(Part::Overlays));
+        QTRY_VERIFY_WITH_TIMEOUT(results.isReady(Part::Overlays), 30000);
         const auto &d = tabs->lossTailChart()->data();
         QCOMPARE(d.overlays.size(), 2); // Student-t and Cornish–Fisher beside the normal curve
         for (const auto &o : d.overlays) {

@@ -7,7 +7,7 @@
 // and those checks are skipped otherwise. The PDF header ("%PDF-") and the page count are checked
 // always.
 #include "actions.h"
-#include "document/recomputescheduler.h"
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "document/workbookfile.h"
 #include "mainwindow.h"
@@ -218,7 +218,7 @@ void TestReport::windowExportsTheReportFromTheFileMenu()
     QCoreApplication::setApplicationName(QStringLiteral("TailwiseReportTests"));
     MainWindow window;
     QCOMPARE(window.openWorkbookFile(samplePath()), QString());
-    window.scheduler().computeNow();
+    window.results().computeNow(Part::Headline);
     // The command is on the File menu.
     QAction *action = window.actions().get(Actions::ExportReport);
     QMenu *file = window.menuBar()->findChild<QMenu *>();
@@ -241,8 +241,8 @@ void TestReport::windowExportsTheReportFromTheFileMenu()
     if (text.isNull())
         QSKIP("pdftotext (poppler-utils) is not installed");
     // The window's own headline figure is on the report.
-    QVERIFY(window.workbook().report().has_value());
-    QVERIFY2(squeezed(text).contains(moneyText(window.workbook().report()->figures.var)), qPrintable(text.left(2000)));
+    QVERIFY(window.workbook().results().report().has_value());
+    QVERIFY2(squeezed(text).contains(moneyText(window.workbook().results().report()->figures.var)), qPrintable(text.left(2000)));
 }
 
 QTEST_MAIN(TestReport)

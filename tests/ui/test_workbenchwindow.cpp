@@ -103,7 +103,7 @@ private slots:
         QVERIFY(QTest::qWaitForWindowExposed(w.get()));
         Workbook &wb = w->workbook();
         const double before = coreVar(wb, wb.holdings(), wb.assumptions());
-        QVERIFY2(close(wb.report()->figures.var, before), qPrintable(describe(wb.report()->figures.var, before)));
+        QVERIFY2(close(wb.results().report()->figures.var, before), qPrintable(describe(wb.results().report()->figures.var, before)));
         QCOMPARE(headlineVar(*w), moneyText(before));
 
         // Row 0 of the sample holds 9,000 LARK_ENERGY; the user types 20000.
@@ -115,7 +115,7 @@ private slots:
                      QStringLiteral("20000"));
         QCOMPARE(wb.holdings()[0].quantity, 20000.0);
         QTRY_COMPARE(headlineVar(*w), moneyText(after));
-        QVERIFY2(close(wb.report()->figures.var, after), qPrintable(describe(wb.report()->figures.var, after)));
+        QVERIFY2(close(wb.results().report()->figures.var, after), qPrintable(describe(wb.results().report()->figures.var, after)));
         QCOMPARE(wb.undoStack()->undoText(), QStringLiteral("Change quantity of LARK_ENERGY to 20,000"));
         QVERIFY(w->isWindowModified());
 
@@ -123,7 +123,7 @@ private slots:
         w->actions().get(Actions::Undo)->trigger();
         QCOMPARE(wb.holdings()[0].quantity, 9000.0);
         QTRY_COMPARE(headlineVar(*w), moneyText(before));
-        QVERIFY2(close(wb.report()->figures.var, before), qPrintable(describe(wb.report()->figures.var, before)));
+        QVERIFY2(close(wb.results().report()->figures.var, before), qPrintable(describe(wb.results().report()->figures.var, before)));
     }
 
     void changingConfidenceUpdatesFiguresAndChart()
@@ -139,14 +139,14 @@ private slots:
         spin->selectAll();
         QTest::keyClicks(spin, QStringLiteral("97.5"));
         QTest::keyClick(spin, Qt::Key_Return);
-        QTRY_VERIFY(wb.report() && std::abs(wb.report()->assumptions.confidence - 0.975) < 1e-12);
+        QTRY_VERIFY(wb.results().report() && std::abs(wb.results().report()->assumptions.confidence - 0.975) < 1e-12);
         Assumptions a = wb.assumptions();
         const double expected = coreVar(wb, wb.holdings(), a);
-        QVERIFY2(close(wb.report()->figures.var, expected), qPrintable(describe(wb.report()->figures.var, expected)));
+        QVERIFY2(close(wb.results().report()->figures.var, expected), qPrintable(describe(wb.results().report()->figures.var, expected)));
         QCOMPARE(headlineVar(*w), moneyText(expected));
         // The loss-tail chart's shaded boundary follows to exactly −VaR.
         const auto &chart = w->chartTabs()->lossTailChart()->data();
-        QCOMPARE(chart.tailBoundary, -wb.report()->figures.var);
+        QCOMPARE(chart.tailBoundary, -wb.results().report()->figures.var);
         QCOMPARE(chart.confidence, 0.975);
     }
 
@@ -242,8 +242,8 @@ private slots:
         wb.undoStack()->undo();
         QCOMPARE(wb.assumptions().confidence, 0.99);
         QCOMPARE(slider->value(), 990);
-        w->scheduler().computeNow();
-        QVERIFY2(close(wb.report()->figures.var, coreVar(wb, wb.holdings(), wb.assumptions())), "figures after undo");
+        w->results().computeNow(Part::Headline);
+        QVERIFY2(close(wb.results().report()->figures.var, coreVar(wb, wb.holdings(), wb.assumptions())), "figures after undo");
     }
 
     void refusedCellKeepsOldValueAndSaysWhy()
@@ -293,7 +293,7 @@ private slots:
         const int days = wb.prices().dayCount();
         const std::size_t holdings = wb.holdings().size();
         const int steps = wb.undoStack()->count();
-        const double var = wb.report()->figures.var;
+        const double var = wb.results().report()->figures.var;
 
         QTemporaryDir dir;
         const QString bad = dir.filePath(QStringLiteral("bad-prices.csv"));
@@ -323,8 +323,8 @@ private slots:
         QCOMPARE(wb.prices().dayCount(), days);
         QCOMPARE(wb.holdings().size(), holdings);
         QCOMPARE(wb.undoStack()->count(), steps);
-        w->scheduler().computeNow();
-        QCOMPARE(wb.report()->figures.var, var);
+        w->results().computeNow(Part::Headline);
+        QCOMPARE(wb.results().report()->figures.var, var);
     }
 
     void pasteIsOneUndoStep()
@@ -386,21 +386,21 @@ private slots:
             out.write(json.left(json.size() / 2));
         }
         edit::setTitle(wb, QStringLiteral("Kept as it was"));
-        const double var = wb.report()->figures.var;
+        const double var = wb.results().report()->figures.var;
         const QString problem = w->openWorkbookFile(truncated);
         QVERIFY2(problem.contains(QStringLiteral("truncated.tailwise")), qPrintable(problem));
         QCOMPARE(wb.title(), QStringLiteral("Kept as it was"));
         QCOMPARE(wb.holdings().size(), std::size_t(13));
         QVERIFY(wb.isModified());
-        QCOMPARE(wb.report()->figures.var, var);
+        QCOMPARE(wb.results().report()->figures.var, var);
 
         // Reopening the saved file brings back every input.
         QCOMPARE(w->openWorkbookFile(good), QString());
         QCOMPARE(wb.holdings().size(), std::size_t(13));
         QCOMPARE(wb.holdings()[12].quantity, -120.0);
         QVERIFY(!wb.isModified());
-        w->scheduler().computeNow();
-        QCOMPARE(wb.report()->figures.var, var);
+        w->results().computeNow(Part::Headline);
+        QCOMPARE(wb.results().report()->figures.var, var);
     }
 
     void holdingsModelPassesTheTester()
@@ -415,16 +415,16 @@ private slots:
         QVERIFY(model->setData(model->index(1, HoldingsModel::QuantityColumn), QStringLiteral("1234.5")));
         QVERIFY(model->setData(model->index(1, HoldingsModel::PriceColumn), 150.25));
         QVERIFY(model->setData(model->index(1, HoldingsModel::PriceColumn), QString()));
-        w->scheduler().computeNow();
+        w->results().computeNow(Part::Headline);
         edit::removeHoldings(wb, {0, 3, 4});
-        w->scheduler().computeNow();
+        w->results().computeNow(Part::Headline);
         QVERIFY(w->holdingsEditor()->addHolding().isEmpty());
         w->holdingsEditor()->tableView()->sortByColumn(HoldingsModel::MarketValueColumn, Qt::DescendingOrder);
         QVERIFY(w->holdingsEditor()->importHoldingsFile(samplePath("holdings.csv")).isEmpty());
-        w->scheduler().computeNow();
+        w->results().computeNow(Part::Headline);
         while (wb.undoStack()->canUndo())
             wb.undoStack()->undo();
-        w->scheduler().computeNow();
+        w->results().computeNow(Part::Headline);
         QCOMPARE(model->rowCount(), 0);
         QCOMPARE(model->index(0, 0).isValid(), false);
     }

@@ -2,7 +2,7 @@
 // (samples/prices.csv, samples/holdings.csv), figures computed.
 #pragma once
 
-#include "document/recomputescheduler.h"
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "mainwindow.h"
 #include "panels/holdingseditor.h"
@@ -33,7 +33,7 @@ inline std::unique_ptr<MainWindow> sampleWindow()
     const QString holdingsProblem = window->holdingsEditor()->importHoldingsFile(samplePath("holdings.csv"));
     if (!pricesProblem.isEmpty() || !holdingsProblem.isEmpty())
         qFatal("sample fund did not load: %s %s", qPrintable(pricesProblem), qPrintable(holdingsProblem));
-    window->scheduler().computeNow();
+    window->results().computeNow(Part::Headline);
     return window;
 }
 

@@ -1,11 +1,14 @@
 #include "workbook.h"
 
+#include "resultsstore.h"
+
 #include <QUndoStack>
 
 namespace tailwise::ui {
 
 Workbook::Workbook(QObject *parent) : QObject(parent), m_undo(new QUndoStack(this))
 {
+    m_results = new ResultsStore(*this);
     connect(m_undo, &QUndoStack::cleanChanged, this, [this](bool) { emit modifiedChanged(isModified()); });
 }
 
@@ -49,8 +52,6 @@ void Workbook::replaceContents(WorkbookContents contents, const QString &path, b
     m_contents.warnings.clear(); // shown once, when the file was opened
     m_unsavedWithoutUndo = unsaved; // before clear(), whose cleanChanged reports isModified()
     m_undo->clear();
-    m_report.reset();
-    m_error.reset();
     setFilePath(path);
     emit holdingsReset();
     emit pricesChanged();
@@ -125,7 +126,6 @@ void Workbook::applyTitle(const QString &title)
 {
     m_contents.title = title;
     emit titleChanged();
-    inputsTouched();
 }
 
 void Workbook::applyCurrency(const QString &currency)
@@ -144,28 +144,6 @@ void Workbook::applyScenarios(const std::vector<StressScenario> &scenarios)
 {
     m_contents.scenarios = scenarios;
     emit scenariosChanged();
-}
-
-void Workbook::setComputing(bool computing)
-{
-    if (computing == m_computing)
-        return;
-    m_computing = computing;
-    emit computingChanged(computing);
-}
-
-void Workbook::publishResult(quint64 generation, Result<RiskReport> result)
-{
-    if (generation != m_generation)
-        return; // computed from inputs that have changed since
-    if (result.ok()) {
-        m_report = std::move(result).value();
-        m_error.reset();
-    } else {
-        m_error = result.error();
-        m_report.reset();
-    }
-    emit resultsChanged();
 }
 
 } // namespace tailwise::ui

@@ -1,12 +1,13 @@
 // Workbook: the one document of the window. It owns the inputs (price history, holdings,
-// assumptions, title), the undo stack and the latest results, and says precisely what changed
-// through specific signals. Panels get it passed in; there is no global instance.
+// assumptions, title), the undo stack and its results store (results(): every computed figure,
+// resultsstore.h), and says precisely what changed through specific signals. Panels get it
+// passed in; there is no global instance.
 //
 // Who changes what:
 //   - user edits go through the free functions in commands.h, which push undo commands; the
 //     commands call the apply*() mutators below (and nothing else should);
 //   - opening a file or "New" calls resetContents(), which also clears the undo stack;
-//   - RecomputeScheduler (recomputescheduler.h) computes results and calls publishResult().
+//   - the ResultsStore (resultsstore.h) listens to the signals and computes the figures.
 #pragma once
 
 #include "workbookcontents.h"
@@ -25,6 +26,8 @@
 class QUndoStack;
 
 namespace tailwise::ui {
+
+class ResultsStore;
 
 class Workbook : public QObject {
     Q_OBJECT
@@ -51,12 +54,9 @@ public:
     bool isModified() const;
     void markSaved(const QString &path);
 
-    // The latest results. Exactly one of report()/resultError() is set once a computation has
-    // finished; both are empty before the first one.
-    const std::optional<tailwise::RiskReport> &report() const { return m_report; }
-    const std::optional<tailwise::Error> &resultError() const { return m_error; }
-    bool isComputing() const { return m_computing; }
-    // Incremented whenever an input changes; a result computed from older inputs is stale.
+    // Every figure computed from this workbook, with its state (resultsstore.h).
+    ResultsStore &results() const { return *m_results; }
+    // Incremented whenever an input of the figures (prices, holdings, assumptions) changes.
     quint64 inputGeneration() const { return m_generation; }
 
     // Replaces everything (open, new). Clears the undo stack. `fromFile` is empty for a new
@@ -73,17 +73,13 @@ public:
     void applyHoldings(const tailwise::Holdings &holdings);
     void applyAssumptions(const tailwise::Assumptions &assumptions);
     void applyPrices(const tailwise::PriceHistory &prices);
+    // The title only names the workbook, so it changes no input generation (nothing recomputes).
     void applyTitle(const QString &title);
     // The currency only labels figures, so it changes no input generation (nothing recomputes).
     void applyCurrency(const QString &currency);
     // Scenarios do not feed the risk figures, so they change no input generation.
     void applyScenarios(const std::vector<tailwise::StressScenario> &scenarios);
     void applyBacktestSettings(const std::optional<BacktestSettings> &settings);
-
-    // --- For the scheduler. ---
-    void setComputing(bool computing);
-    // Ignored when `generation` is older than inputGeneration() (a stale result is never shown).
-    void publishResult(quint64 generation, tailwise::Result<tailwise::RiskReport> result);
 
 signals:
     void pricesChanged();
@@ -102,9 +98,7 @@ signals:
     // inputsChanged: the backtest runner listens to both).
     void backtestSettingsChanged();
     void contentsReset();      // after resetContents(): everything changed
-    void inputsChanged();      // after any of the above: the scheduler listens to this one
-    void resultsChanged();
-    void computingChanged(bool computing);
+    void inputsChanged();      // after a change of prices, holdings or assumptions, and after resetContents()
     void filePathChanged();
     void modifiedChanged(bool modified);
 
@@ -116,9 +110,7 @@ private:
     QUndoStack *m_undo = nullptr;
     QString m_filePath;
     bool m_unsavedWithoutUndo = false; // contents that came from no file (restored unsaved work)
-    std::optional<tailwise::RiskReport> m_report;
-    std::optional<tailwise::Error> m_error;
-    bool m_computing = false;
+    ResultsStore *m_results = nullptr;
     quint64 m_generation = 0;
 };
 

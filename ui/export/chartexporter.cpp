@@ -1,13 +1,10 @@
 #include "export/chartexporter.h"
 
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "export/captions.h"
 #include "export/chartclipboard.h"
 #include "export/chartexportdialog.h"
-#include "models/modelcomparisonmodel.h"
-#include "panels/backtestview.h"
-#include "panels/charttabs.h"
-#include "panels/modelcomparisonview.h"
 
 #include <QApplication>
 #include <QClipboard>
@@ -17,30 +14,36 @@
 
 namespace tailwise::ui {
 
-ChartExporter::ChartExporter(Workbook &workbook, ChartTabs &charts, QWidget *window)
-    : QObject(window), m_workbook(workbook), m_charts(charts), m_window(window)
+ChartExporter::ChartExporter(Workbook &workbook, QWidget *window)
+    : QObject(window), m_workbook(workbook), m_window(window)
 {
     m_last.print.sizeMm = sizePresetMm(SizePreset::HalfPage);
 }
 
 std::optional<WorkbookResults> ChartExporter::currentResults() const
 {
-    const auto &report = m_workbook.report();
+    ResultsStore &store = m_workbook.results();
+    const auto &report = store.report();
     if (!report)
         return std::nullopt;
+    // An export needs the backtest and the comparison: ask for the ones not yet computed.
+    store.request(Part::Backtest);
+    store.request(Part::Comparison);
     std::optional<Result<BacktestResult>> backtest;
-    const BacktestRun &run = m_charts.backtestView()->runner().run();
-    if (run.problem)
+    const BacktestRun &run = store.backtest();
+    const PartState backtestState = store.state(Part::Backtest);
+    if (backtestState == PartState::Failed && run.problem)
         backtest = Result<BacktestResult>(*run.problem);
-    else if (!run.models.empty() && run.models.front().result)
+    else if (backtestState == PartState::Ready && !run.models.empty() && run.models.front().result)
         backtest = *run.models.front().result;
     std::optional<Result<std::vector<ModelRow>>> models;
-    if (m_charts.modelComparison()->isCurrent() && !m_charts.modelComparison()->model()->rows().empty())
-        models = m_charts.modelComparison()->model()->rows();
-    WorkbookResults results = assembleWorkbookResults(m_workbook.title(), *report, run.settings, backtest, models,
-                                                      m_workbook.currency());
+    if (store.state(Part::Comparison) == PartState::Ready && store.comparison() && *store.comparison()
+        && !store.comparison()->value().empty())
+        models = *store.comparison();
+    WorkbookResults results = assembleWorkbookResults(m_workbook.title(), *report, m_workbook.backtestSettings(), backtest,
+                                                      models, m_workbook.currency());
     if (!models)
-        results.modelsProblem = tr("open the “Models side by side” tab and let it finish, then export again.");
+        results.modelsProblem = tr("the model comparison is being computed; export again in a moment.");
     if (!results.backtestChart && !backtest)
         results.backtestProblem = tr("the backtest is still running; export again when the Backtest tab shows it.");
     return results;
@@ -55,7 +58,7 @@ QString ChartExporter::writeFile(const QString &path, const ChartExportSettings 
     return written ? QString() : QString::fromStdString(written.error().message);
 }
 
-void ChartExporter::exportChart()
+void ChartExporter::exportChart(ChartKind kind, LossTailUnit unit)
 {
     const auto results = currentResults();
     if (!results) {
@@ -63,11 +66,11 @@ void ChartExporter::exportChart()
         return;
     }
     // The loss tail goes out in the unit it is shown in.
-    m_last.print.lossTailUnit = m_charts.lossTailInPercent() ? LossTailUnit::PercentOfValue : LossTailUnit::Money;
+    m_last.print.lossTailUnit = unit;
     // The workbook's currency when it states one; otherwise what was typed last time.
     if (!m_workbook.currency().isEmpty())
         m_last.print.currency = m_workbook.currency();
-    ChartExportDialog dialog(*results, m_charts.currentChartKind().value_or(ChartKind::LossTail), m_last, m_window);
+    ChartExportDialog dialog(*results, kind, m_last, m_window);
     connect(&dialog, &ChartExportDialog::copyRequested, this,
             [this, &results](const ChartExportSettings &s) { copy(s, *results); });
     if (dialog.exec() != QDialog::Accepted)
@@ -89,14 +92,14 @@ void ChartExporter::exportChart()
     emit statusMessage(tr("Chart written to %1").arg(QFileInfo(path).fileName()));
 }
 
-void ChartExporter::copyChart()
+void ChartExporter::copyChart(ChartKind kind, LossTailUnit unit)
 {
     const auto results = currentResults();
     if (!results)
         return;
     ChartExportSettings s = m_last;
-    s.kind = m_charts.currentChartKind().value_or(ChartKind::LossTail);
-    s.print.lossTailUnit = m_charts.lossTailInPercent() ? LossTailUnit::PercentOfValue : LossTailUnit::Money;
+    s.kind = kind;
+    s.print.lossTailUnit = unit;
     // Without the dialog the caption is the generated one: the clipboard carries the whole picture.
     s.print.caption = captionFor(s.kind, *results);
     copy(s, *results);

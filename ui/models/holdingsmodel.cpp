@@ -1,6 +1,7 @@
 #include "holdingsmodel.h"
 
 #include "document/commands.h"
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "panels/localnumbers.h"
 
@@ -44,7 +45,7 @@ HoldingsModel::HoldingsModel(Workbook &workbook, QObject *parent) : QAbstractTab
         if (rowCount() > 0)
             emit dataChanged(index(0, PriceColumn), index(rowCount() - 1, MarketValueColumn), kValueRoles);
     });
-    connect(&m_workbook, &Workbook::resultsChanged, this, &HoldingsModel::emitRiskColumnsChanged);
+    connect(&m_workbook.results(), &ResultsStore::headlineChanged, this, &HoldingsModel::emitRiskColumnsChanged);
 }
 
 void HoldingsModel::emitRiskColumnsChanged()
@@ -65,7 +66,7 @@ int HoldingsModel::columnCount(const QModelIndex &parent) const
 
 bool HoldingsModel::reportMatches(int row) const
 {
-    const auto &report = m_workbook.report();
+    const auto &report = m_workbook.results().report();
     if (!report || report->holdings.size() != m_workbook.holdings().size())
         return false;
     const auto r = static_cast<std::size_t>(row);
@@ -100,7 +101,7 @@ std::optional<double> HoldingsModel::numberValue(int row, int column) const
     case VarShareColumn: {
         if (!reportMatches(row))
             break;
-        const HoldingRisk &risk = m_workbook.report()->holdings[static_cast<std::size_t>(row)];
+        const HoldingRisk &risk = m_workbook.results().report()->holdings[static_cast<std::size_t>(row)];
         if (column == WeightColumn)
             v = risk.weight;
         else if (column == StandaloneVarColumn)

@@ -1,6 +1,7 @@
 #include "assumptionspane.h"
 
 #include "assumptionlabels.h"
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "localnumbers.h"
 #include "modelsettings.h"
@@ -57,7 +58,7 @@ AssumptionsPane::AssumptionsPane(Workbook &workbook, QWidget *parent) : QWidget(
     connectWidgets();
     connect(&workbook, &Workbook::assumptionsChanged, this, &AssumptionsPane::refresh);
     connect(&workbook, &Workbook::pricesChanged, this, &AssumptionsPane::refresh);
-    connect(&workbook, &Workbook::resultsChanged, this, &AssumptionsPane::refreshWindowRange);
+    connect(&workbook.results(), &ResultsStore::headlineChanged, this, &AssumptionsPane::refreshWindowRange);
     refresh();
 }
 

@@ -6,6 +6,7 @@
 #include "charts/backtestchart.h"
 #include "charts/chartstyle.h"
 #include "document/commands.h"
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 
 #include <QCheckBox>
@@ -96,7 +97,6 @@ QString BacktestView::modelTitle(RiskModel model)
 BacktestView::BacktestView(Workbook &workbook, QWidget *parent) : QWidget(parent), m_workbook(workbook)
 {
     setObjectName(QStringLiteral("backtestView"));
-    m_runner = new BacktestRunner(workbook, this);
 
     // --- Settings and status ---
     m_window = new QSpinBox(this);
@@ -274,15 +274,44 @@ BacktestView::BacktestView(Workbook &workbook, QWidget *parent) : QWidget(parent
     };
     connect(m_model, &QComboBox::currentIndexChanged, this, modelsEdited);
     connect(m_compare, &QCheckBox::toggled, this, modelsEdited);
-    connect(m_stop, &QPushButton::clicked, m_runner, &BacktestRunner::cancel);
-    connect(m_again, &QPushButton::clicked, m_runner, &BacktestRunner::start);
+    ResultsStore &store = workbook.results();
+    connect(m_stop, &QPushButton::clicked, this, [this] {
+        m_stopped = true;
+        m_workbook.results().setWatched(Part::Backtest, false);
+        m_workbook.results().cancel(Part::Backtest);
+    });
+    connect(m_again, &QPushButton::clicked, this, [this] {
+        m_stopped = false;
+        m_workbook.results().setWatched(Part::Backtest, isVisible());
+        m_workbook.results().request(Part::Backtest);
+    });
 
     connect(&workbook, &Workbook::backtestSettingsChanged, this, &BacktestView::refreshSettings);
     connect(&workbook, &Workbook::contentsReset, this, &BacktestView::refreshSettings);
-    connect(m_runner, &BacktestRunner::resultsChanged, this, &BacktestView::refreshResults);
+    connect(&store, &ResultsStore::backtestChanged, this, &BacktestView::refreshResults);
+    // A stopped run waits for "Run again" or a change of what it computes from.
+    auto inputChanged = [this] {
+        if (!m_stopped)
+            return;
+        m_stopped = false;
+        if (isVisible())
+            m_workbook.results().setWatched(Part::Backtest, true);
+        refreshResults();
+    };
+    connect(&workbook, &Workbook::inputsChanged, this, inputChanged);
+    connect(&workbook, &Workbook::backtestSettingsChanged, this, inputChanged);
     connect(&workbook, &Workbook::currencyChanged, this, &BacktestView::refreshResults);
-    connect(m_runner, &BacktestRunner::stateChanged, this, &BacktestView::refreshResults);
-    connect(m_runner, &BacktestRunner::progress, this, [this](double f) { m_progress->setValue(static_cast<int>(std::lround(f * 100.0))); });
+    connect(&store, &ResultsStore::statusChanged, this, [this](Part part) {
+        if (part != Part::Backtest)
+            return;
+        if (m_workbook.results().isRunning(Part::Backtest))
+            m_stopped = false;
+        refreshResults();
+    });
+    connect(&store, &ResultsStore::progress, this, [this](Part part, double f) {
+        if (part == Part::Backtest)
+            m_progress->setValue(static_cast<int>(std::lround(f * 100.0)));
+    });
 
     refreshSettings();
     refreshResults();
@@ -304,36 +333,54 @@ void BacktestView::refreshSettings()
     m_compare->setChecked(s.models.size() > 1);
 }
 
+void BacktestView::showEvent(QShowEvent *event)
+{
+    QWidget::showEvent(event);
+    // Computed while it is in view; a hidden tab costs nothing per edit.
+    m_workbook.results().setWatched(Part::Backtest, !m_stopped);
+}
+
+void BacktestView::hideEvent(QHideEvent *event)
+{
+    QWidget::hideEvent(event);
+    m_workbook.results().setWatched(Part::Backtest, false);
+}
+
 void BacktestView::refreshStatus()
 {
-    const auto state = m_runner->state();
-    const bool running = state == BacktestRunner::State::Running;
+    const PartStatus &status = m_workbook.results().status(Part::Backtest);
+    const bool running = status.state == PartState::Running;
+    const bool stopped = m_stopped && status.state == PartState::OutOfDate;
     m_progress->setVisible(running);
     m_stop->setVisible(running);
-    m_again->setVisible(state == BacktestRunner::State::Cancelled);
+    m_again->setVisible(stopped);
     if (running)
-        m_progress->setValue(static_cast<int>(std::lround(m_runner->progressFraction() * 100.0)));
-    m_status->setText(running ? tr("Backtesting…") : state == BacktestRunner::State::Cancelled ? tr("Stopped.") : QString());
+        m_progress->setValue(static_cast<int>(std::lround(status.progress * 100.0)));
+    m_status->setText(running ? tr("Backtesting…") : stopped ? tr("Stopped.") : QString());
 }
 
 void BacktestView::refreshResults()
 {
     refreshStatus();
-    const BacktestRun &run = m_runner->run();
-    const auto state = m_runner->state();
+    const ResultsStore &store = m_workbook.results();
+    const BacktestRun &run = store.backtest();
+    const PartState state = store.state(Part::Backtest);
     auto showMessage = [this](const QString &text) {
         m_message->setText(text);
         m_stack->setCurrentWidget(m_message);
     };
-    if (run.problem)
+    if (state == PartState::Failed && run.problem)
         return showMessage(tr("No backtest: %1.").arg(QString::fromStdString(run.problem->message)));
-    if (run.models.empty() || !run.models.front().result) {
-        if (state == BacktestRunner::State::Cancelled)
+    const bool current = state == PartState::Running || state == PartState::Ready;
+    if (!current || run.models.empty() || !run.models.front().result) {
+        // Figures of older inputs are never shown as the current ones.
+        if (m_stopped && state == PartState::OutOfDate)
             return showMessage(tr("The backtest was stopped. Press “Run again” to run it, or change a setting."));
-        if (state == BacktestRunner::State::Running)
-            return showMessage(tr("Backtesting the %1 model over the price history…")
-                                   .arg(run.models.empty() ? QString() : modelTitle(run.models.front().model)));
-        return showMessage(tr("The backtest appears here once there is a price history and holdings."));
+        if (!m_workbook.hasPrices() || m_workbook.holdings().empty())
+            return showMessage(tr("The backtest appears here once there is a price history and holdings."));
+        const BacktestSettings settings = m_workbook.backtestSettings();
+        return showMessage(tr("Backtesting the %1 model over the price history…")
+                               .arg(settings.models.empty() ? QString() : modelTitle(settings.models.front())));
     }
     const auto &main = *run.models.front().result;
     if (!main)
@@ -345,7 +392,7 @@ void BacktestView::refreshResults()
 
 void BacktestView::showResult(const BacktestResult &r)
 {
-    const BacktestRun &run = m_runner->run();
+    const BacktestRun &run = m_workbook.results().backtest();
     const double size = run.settings.testSize;
     const BacktestVerdict v = verdictAt(r, size);
     const QString model = modelTitle(r.assumptions.model);
@@ -414,7 +461,7 @@ void BacktestView::showResult(const BacktestResult &r)
 
 void BacktestView::fillComparison()
 {
-    const BacktestRun &run = m_runner->run();
+    const BacktestRun &run = m_workbook.results().backtest();
     m_comparisonBox->setVisible(run.models.size() > 1);
     const auto &main = run.models.front().result;
     m_comparisonBox->setTitle(main && main->ok() ? tr("Models side by side (%1 exceptions expected)")

@@ -7,10 +7,13 @@
 // the exceptions marked, the test figures (observations, exceptions, expected, Kupiec,
 // Christoffersen), the list of exceptions with their dates and losses against VaR, and — when
 // more than one model is run — the models side by side. Every figure comes from core through
-// the BacktestRunner (document/backtestrunner.h); the view computes none.
+// the results store's backtest part (document/resultsstore.h), computed while the view is shown
+// (or on request: an export); the view computes none and holds none.
 #pragma once
 
-#include "document/backtestrunner.h"
+#include "document/workbookcontents.h"
+
+#include "tailwise/backtest.h"
 
 #include <QWidget>
 
@@ -35,8 +38,6 @@ class BacktestView : public QWidget {
 public:
     explicit BacktestView(Workbook &workbook, QWidget *parent = nullptr);
 
-    BacktestRunner &runner() { return *m_runner; }
-
     // The texts a user reads, for tests: the zone line, the verdict line, the message shown
     // instead of results (empty when results are shown).
     QString zoneText() const;
@@ -54,6 +55,10 @@ public:
     // The window's name of a model ("Normal", "Student-t", …).
     static QString modelTitle(tailwise::RiskModel model);
 
+protected:
+    void showEvent(QShowEvent *event) override;
+    void hideEvent(QHideEvent *event) override;
+
 private:
     void refreshSettings();
     void refreshStatus();
@@ -63,7 +68,7 @@ private:
     void editSettings(const BacktestSettings &settings, const QString &text, int mergeKey);
 
     Workbook &m_workbook;
-    BacktestRunner *m_runner = nullptr;
+    bool m_stopped = false; // the user stopped the run; it waits for "Run again" or a new input
 
     QSpinBox *m_window = nullptr;
     QDoubleSpinBox *m_testSize = nullptr;

@@ -4,6 +4,7 @@
 #include "charts/losstailchart.h"
 #include "charts/tradeoffchart.h"
 #include "document/commands.h"
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "localnumbers.h"
 #include "backtestview.h"
@@ -90,14 +91,23 @@ ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_w
     layout->setContentsMargins(0, 0, 0, 0);
     layout->addWidget(m_stack);
 
-    connect(&workbook, &Workbook::resultsChanged, this, &ChartTabs::refresh);
+    ResultsStore &store = workbook.results();
+    connect(&store, &ResultsStore::headlineChanged, this, &ChartTabs::refresh);
+    connect(&store, &ResultsStore::overlaysChanged, this, [this] {
+        if (m_overlay->isChecked())
+            refreshLossTail();
+    });
     connect(&workbook, &Workbook::contentsReset, this, &ChartTabs::refresh);
     connect(&workbook, &Workbook::currencyChanged, this, &ChartTabs::refresh); // the money axes name it
     connect(m_tabs, &QTabWidget::currentChanged, this, &ChartTabs::refreshTab);
     connect(m_tabs, &QTabWidget::currentChanged, this, &ChartTabs::updateChartActions);
     connect(m_percent, &QCheckBox::toggled, this, &ChartTabs::refreshLossTail);
     connect(m_history, &QCheckBox::toggled, this, &ChartTabs::refreshLossTail);
-    connect(m_overlay, &QCheckBox::toggled, this, &ChartTabs::refreshLossTail);
+    connect(m_overlay, &QCheckBox::toggled, this, [this] {
+        watchOverlays();
+        refreshLossTail();
+    });
+    connect(m_tabs, &QTabWidget::currentChanged, this, &ChartTabs::watchOverlays);
     connect(m_tradeoff, &TradeoffChart::assumptionsPicked, this, [this](int horizonDays, double confidence) {
         Assumptions a = m_workbook.assumptions();
         if (a.horizonDays == horizonDays && a.confidence == confidence)
@@ -112,7 +122,7 @@ ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_w
 
 std::optional<ChartKind> ChartTabs::currentChartKind() const
 {
-    if (!m_workbook.report())
+    if (!m_workbook.results().report())
         return std::nullopt;
     const QWidget *page = m_tabs->currentWidget();
     if (page == m_lossTail->parentWidget())
@@ -159,28 +169,27 @@ void ChartTabs::updateChartActions()
             action->setEnabled(chart);
 }
 
+void ChartTabs::watchOverlays()
+{
+    // The other models' curves are computed (in the background) only while they are drawn.
+    m_workbook.results().setWatched(Part::Overlays, m_overlay->isChecked() && m_tabs->currentIndex() == 0);
+}
+
 void ChartTabs::refreshLossTail()
 {
-    const auto &report = m_workbook.report();
+    const ResultsStore &store = m_workbook.results();
+    const auto &report = store.report();
     if (!report)
         return;
     LossTailOptions options;
     options.currency = m_workbook.currency();
     options.unit = m_percent->isChecked() ? LossTailUnit::PercentOfValue : LossTailUnit::Money;
     options.showHistory = m_history->isChecked();
-    m_overlayReports.clear();
-    if (m_overlay->isChecked()) {
-        // The models with a closed density, at the same inputs; core computes each one. (The main
-        // curve is already the normal one, whatever the model.)
-        for (const RiskModel model : {RiskModel::StudentT, RiskModel::CornishFisher}) {
-            if (model == report->assumptions.model)
+    if (m_overlay->isChecked() && store.isReady(Part::Overlays)) {
+        // The models with a closed density at the same inputs (the store's overlays part).
+        for (const RiskReport &r : store.overlays()) {
+            if (r.model.used == report->assumptions.model)
                 continue;
-            Assumptions a = m_workbook.assumptions();
-            a.model = model;
-            if (auto other = computeRisk(m_workbook.prices(), m_workbook.holdings(), a); other && other.value().model.used == model)
-                m_overlayReports.push_back(std::move(other).value());
-        }
-        for (const RiskReport &r : m_overlayReports) {
             const QString name = r.model.used == RiskModel::StudentT
                                      ? tr("Student-t (ν = %1)").arg(QLocale().toString(r.model.dof.value_or(0.0), 'f', 1))
                                      : tr("Cornish–Fisher");
@@ -210,9 +219,9 @@ ContributionsOptions contributionsOptions(const QString &currency)
 
 void ChartTabs::refresh()
 {
-    const auto &report = m_workbook.report();
+    const auto &report = m_workbook.results().report();
     if (!report) {
-        const auto &error = m_workbook.resultError();
+        const auto &error = m_workbook.results().headlineError();
         const bool nothingYet = !m_workbook.hasPrices() || m_workbook.holdings().empty();
         m_empty->setText(error && !nothingYet ? tr("No charts: %1.").arg(QString::fromStdString(error->message))
                                               : tr("The charts appear here once there are figures to draw."));
@@ -230,7 +239,7 @@ void ChartTabs::refresh()
 
 void ChartTabs::refreshTab(int tab)
 {
-    const auto &report = m_workbook.report();
+    const auto &report = m_workbook.results().report();
     if (!report || tab < 0 || tab >= static_cast<int>(m_stale.size()) || !m_stale[static_cast<std::size_t>(tab)])
         return;
     m_stale[static_cast<std::size_t>(tab)] = false;

@@ -58,6 +58,7 @@ public:
 private:
     void refresh();
     void refreshLossTail();
+    void watchOverlays();
     void refreshTab(int tab);
     void updateChartActions();
 
@@ -72,7 +73,6 @@ private:
     ContributionsChart *m_contributions = nullptr;
     BacktestView *m_backtest = nullptr;
     QCheckBox *m_overlay = nullptr; // draw the other models' densities on the loss tail
-    std::vector<RiskReport> m_overlayReports; // kept while the chart data points at them
     ModelComparisonView *m_comparison = nullptr;
     WhatIfPanel *m_whatIf = nullptr;
     StressPanel *m_stress = nullptr;

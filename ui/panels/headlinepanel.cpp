@@ -1,5 +1,6 @@
 #include "headlinepanel.h"
 
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "localnumbers.h"
 
@@ -95,13 +96,13 @@ HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(pare
     layout->addWidget(m_sentence);
     layout->addWidget(m_notes);
 
-    connect(&workbook, &Workbook::resultsChanged, this, &HeadlinePanel::refresh);
+    connect(&workbook.results(), &ResultsStore::headlineChanged, this, &HeadlinePanel::refresh);
     connect(&workbook, &Workbook::contentsReset, this, &HeadlinePanel::refresh);
     connect(&workbook, &Workbook::titleChanged, this, &HeadlinePanel::refresh);
     connect(&workbook, &Workbook::currencyChanged, this, &HeadlinePanel::refresh);
     // While a background model runs, the figures on screen belong to the previous inputs: they
     // are greyed and say so until the new ones arrive (or the run is stopped).
-    connect(&workbook, &Workbook::computingChanged, this, [this](bool computing) {
+    connect(&workbook.results(), &ResultsStore::headlineRunning, this, [this](bool computing) {
         m_figures->setEnabled(!computing);
         if (computing)
             m_sentence->setText(tr("Working out the figures for the new inputs…"));
@@ -176,16 +177,23 @@ void HeadlinePanel::refresh()
                                ? QString()
                                : tr("Every money figure is in %1 (the workbook's currency; nothing is converted).")
                                      .arg(m_workbook.currency()));
-    const auto &report = m_workbook.report();
-    const auto &error = m_workbook.resultError();
+    const auto &report = m_workbook.results().report();
+    const auto &error = m_workbook.results().headlineError();
     if (report) {
         m_figures->setVisible(true);
+        const ResultsStore &store = m_workbook.results();
+        // Stopped before the figures of the current inputs arrived: the ones shown are older.
+        const bool stopped = store.state(Part::Headline) == PartState::OutOfDate && !store.isWatched(Part::Headline);
+        m_figures->setEnabled(!stopped && !store.isRunning(Part::Headline));
         m_varMoney->setText(moneyText(report->figures.var));
         m_varShare->setText(percentText(report->varFraction));
         m_esMoney->setText(moneyText(report->figures.es));
         m_esShare->setText(percentText(report->esFraction));
         m_value->setText(moneyText(report->portfolioValue, 0));
-        m_sentence->setText(sentence(*report));
+        m_sentence->setText(stopped ? tr("Stopped: these figures are of the earlier inputs; change an input to compute "
+                                         "them again.")
+                                    : store.isRunning(Part::Headline) ? tr("Working out the figures for the new inputs…")
+                                                                      : sentence(*report));
         QStringList notes;
         for (const auto &w : report->warnings)
             notes << QString::fromStdString(w);

@@ -1,6 +1,7 @@
 #include "holdingseditor.h"
 
 #include "document/commands.h"
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "holdingspaste.h"
 #include "localnumbers.h"
@@ -120,8 +121,8 @@ HoldingsEditor::HoldingsEditor(Workbook &workbook, QWidget *parent) : QWidget(pa
         m_view->resizeColumnsToContents();
         m_fitPending = true;
     });
-    connect(&workbook, &Workbook::resultsChanged, this, [this] {
-        if (m_fitPending && m_workbook.report()) {
+    connect(&workbook.results(), &ResultsStore::headlineChanged, this, [this] {
+        if (m_fitPending && m_workbook.results().report()) {
             m_view->resizeColumnsToContents();
             m_fitPending = false;
         }

@@ -1,6 +1,6 @@
 #include "modelcomparisonview.h"
 
-#include "backgroundrun.h"
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "localnumbers.h"
 #include "models/modelcomparisonmodel.h"
@@ -18,7 +18,7 @@
 namespace tailwise::ui {
 
 ModelComparisonView::ModelComparisonView(Workbook &workbook, QWidget *parent)
-    : QWidget(parent), m_workbook(workbook), m_model(new ModelComparisonModel(this)), m_run(new BackgroundRun(this))
+    : QWidget(parent), m_workbook(workbook), m_model(new ModelComparisonModel(this))
 {
     auto *intro = new QLabel(tr("The same holdings, window and assumptions under each model. Models disagree most in "
                                 "the far tail; none of them is the worst case."),
@@ -52,95 +52,96 @@ ModelComparisonView::ModelComparisonView(Workbook &workbook, QWidget *parent)
     m_progress->hide();
     m_stop->hide();
 
-    connect(&workbook, &Workbook::resultsChanged, this, &ModelComparisonView::inputsChanged);
-    connect(m_run, &BackgroundRun::progress, this, [this](double f) { m_progress->setValue(static_cast<int>(f * 100.0)); });
-    connect(m_run, &BackgroundRun::runningChanged, this, [this](bool running) {
-        m_progress->setVisible(running);
-        m_stop->setVisible(running);
-        if (running)
-            m_progress->setValue(0);
+    ResultsStore &store = workbook.results();
+    connect(&store, &ResultsStore::comparisonChanged, this, &ModelComparisonView::refresh);
+    connect(&store, &ResultsStore::statusChanged, this, [this](Part part) {
+        if (part == Part::Comparison)
+            refreshStatus();
+    });
+    connect(&store, &ResultsStore::progress, this, [this](Part part, double f) {
+        if (part == Part::Comparison)
+            m_progress->setValue(static_cast<int>(f * 100.0));
     });
     connect(m_stop, &QToolButton::clicked, this, &ModelComparisonView::stop);
+    // A stopped comparison starts again when an input changes.
+    connect(&workbook, &Workbook::inputsChanged, this, [this] {
+        if (!m_stopped)
+            return;
+        m_stopped = false;
+        if (isVisible())
+            m_workbook.results().setWatched(Part::Comparison, true);
+    });
+    refresh();
 }
 
 bool ModelComparisonView::isComputing() const
 {
-    return m_run->isRunning();
+    return m_workbook.results().isRunning(Part::Comparison);
 }
 
 bool ModelComparisonView::isCurrent() const
 {
-    return !m_stale && !m_run->isRunning();
-}
-
-void ModelComparisonView::inputsChanged()
-{
-    m_stale = true;
-    m_run->cancel();
-    if (isVisible())
-        start();
+    return m_workbook.results().isReady(Part::Comparison);
 }
 
 void ModelComparisonView::showEvent(QShowEvent *event)
 {
     QWidget::showEvent(event);
-    if (m_stale && !m_run->isRunning())
-        start();
+    // Computed while it is in view; a hidden tab costs nothing per edit.
+    m_workbook.results().setWatched(Part::Comparison, !m_stopped);
+}
+
+void ModelComparisonView::hideEvent(QHideEvent *event)
+{
+    QWidget::hideEvent(event);
+    m_workbook.results().setWatched(Part::Comparison, false);
 }
 
 void ModelComparisonView::stop()
 {
-    m_run->cancel();
+    m_stopped = true;
+    m_workbook.results().setWatched(Part::Comparison, false);
+    m_workbook.results().cancel(Part::Comparison);
     m_status->setText(tr("Stopped: the table shows the last complete comparison, if any."));
 }
 
-void ModelComparisonView::start()
+void ModelComparisonView::refreshStatus()
 {
-    if (!m_workbook.report()) {
+    const ResultsStore &store = m_workbook.results();
+    const bool running = store.isRunning(Part::Comparison);
+    m_progress->setVisible(running);
+    m_stop->setVisible(running);
+    if (running) {
+        m_stopped = false;
+        m_progress->setValue(static_cast<int>(store.status(Part::Comparison).progress * 100.0));
+        m_status->setText(tr("Computing every model…"));
+    }
+}
+
+void ModelComparisonView::refresh()
+{
+    refreshStatus();
+    const ResultsStore &store = m_workbook.results();
+    const auto &rows = store.comparison();
+    if (!rows) {
         m_model->clear();
-        m_status->setText(tr("No figures to compare yet."));
-        m_stale = false;
+        if (!store.report())
+            m_status->setText(tr("No figures to compare yet."));
         return;
     }
-    m_stale = false;
-    m_status->setText(tr("Computing every model…"));
-    const double value = m_workbook.report()->portfolioValue;
-    auto prices = std::make_shared<PriceHistory>(m_workbook.prices());
-    auto holdings = std::make_shared<Holdings>(m_workbook.holdings());
-    const Assumptions assumptions = m_workbook.assumptions();
-    m_run->start<std::vector<ModelRow>>(
-        [prices, holdings, assumptions](const RunControl &control) {
-            return compareModels(*prices, *holdings, assumptions, control);
-        },
-        [this, value](Result<std::vector<ModelRow>> rows) {
-            if (!rows) {
-                m_model->clear();
-                m_status->setText(tr("No comparison: %1").arg(QString::fromStdString(rows.error().message)));
-                return;
-            }
-            m_model->setRows(std::move(rows).value(), value);
-            m_table->resizeColumnsToContents();
-            m_status->setText(tr("Estimates from the window's data under each model's assumptions, not forecasts."));
-        });
+    if (!*rows) {
+        m_model->clear();
+        m_status->setText(tr("No comparison: %1").arg(QString::fromStdString(rows->error().message)));
+        return;
+    }
+    m_model->setRows(rows->value(), store.comparisonValue());
+    m_table->resizeColumnsToContents();
+    m_status->setText(tr("Estimates from the window's data under each model's assumptions, not forecasts."));
 }
 
 void ModelComparisonView::computeNow()
 {
-    m_run->cancel();
-    m_stale = false;
-    if (!m_workbook.report()) {
-        m_model->clear();
-        return;
-    }
-    auto rows = compareModels(m_workbook.prices(), m_workbook.holdings(), m_workbook.assumptions());
-    if (!rows) {
-        m_model->clear();
-        m_status->setText(tr("No comparison: %1").arg(QString::fromStdString(rows.error().message)));
-        return;
-    }
-    m_model->setRows(std::move(rows).value(), m_workbook.report()->portfolioValue);
-    m_table->resizeColumnsToContents();
-    m_status->setText(tr("Estimates from the window's data under each model's assumptions, not forecasts."));
+    m_workbook.results().computeNow(Part::Comparison);
 }
 
 } // namespace tailwise::ui

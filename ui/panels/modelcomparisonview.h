@@ -1,8 +1,8 @@
 // ModelComparisonView: every model side by side at the workbook's current assumptions (core
 // compareModels), as a table of VaR and ES in money and % with each model's difference from the
-// normal. The table is recomputed in the background (Monte Carlo takes most of it) whenever the
-// figures change while it is shown, with progress and a stop button; a hidden view catches up
-// when it is shown again.
+// normal. The rows are the results store's comparison part (document/resultsstore.h), computed in
+// the background (Monte Carlo takes most of it) while the view is shown, with progress and a
+// stop button; a hidden view costs nothing and catches up when it is shown again.
 #pragma once
 
 #include <QWidget>
@@ -14,7 +14,6 @@ class QToolButton;
 
 namespace tailwise::ui {
 
-class BackgroundRun;
 class ModelComparisonModel;
 class Workbook;
 
@@ -34,10 +33,11 @@ public:
 
 protected:
     void showEvent(QShowEvent *event) override;
+    void hideEvent(QHideEvent *event) override;
 
 private:
-    void inputsChanged();
-    void start();
+    void refresh();
+    void refreshStatus();
     void stop();
 
     Workbook &m_workbook;
@@ -46,8 +46,7 @@ private:
     QLabel *m_status = nullptr;
     QProgressBar *m_progress = nullptr;
     QToolButton *m_stop = nullptr;
-    BackgroundRun *m_run = nullptr;
-    bool m_stale = true;
+    bool m_stopped = false; // stopped by the user: not restarted by being shown again
 };
 
 } // namespace tailwise::ui

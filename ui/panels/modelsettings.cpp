@@ -1,6 +1,7 @@
 #include "modelsettings.h"
 
 #include "document/commands.h"
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "localnumbers.h"
 
@@ -97,7 +98,7 @@ ModelSettings::ModelSettings(Workbook &workbook, QWidget *parent) : QWidget(pare
     });
     connect(m_seed, &QLineEdit::editingFinished, this, &ModelSettings::commitSeed);
     connect(&workbook, &Workbook::assumptionsChanged, this, &ModelSettings::refresh);
-    connect(&workbook, &Workbook::resultsChanged, this, &ModelSettings::refresh);
+    connect(&workbook.results(), &ResultsStore::headlineChanged, this, &ModelSettings::refresh);
     refresh();
 }
 
@@ -177,7 +178,7 @@ void ModelSettings::refresh()
 
     // What the model actually used (a fitted ν, a fallback), from the latest figures.
     QString note;
-    if (const auto &report = m_workbook.report(); report && report->assumptions.model == a.model) {
+    if (const auto &report = m_workbook.results().report(); report && report->assumptions.model == a.model) {
         const ModelDetails &m = report->model;
         if (m.used != a.model)
             note = tr("Fell back to the normal model: see the notes under the figures.");

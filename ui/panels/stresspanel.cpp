@@ -1,6 +1,7 @@
 #include "stresspanel.h"
 
 #include "document/commands.h"
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "localnumbers.h"
 
@@ -184,12 +185,34 @@ StressPanel::StressPanel(Workbook &workbook, QWidget *parent) : QWidget(parent),
     connect(&workbook, &Workbook::scenariosChanged, this, [this] {
         if (!m_committing)
             rebuild();
-        refreshOutcomes();
     });
     connect(&workbook, &Workbook::pricesChanged, this, &StressPanel::rebuild);
-    connect(&workbook, &Workbook::resultsChanged, this, &StressPanel::refreshOutcomes);
+    // The outcomes are the results store's stress part, computed in the background while the
+    // panel is in view; the shares need the headline's value.
+    connect(&workbook.results(), &ResultsStore::stressChanged, this, &StressPanel::refreshOutcomes);
+    connect(&workbook.results(), &ResultsStore::headlineChanged, this, &StressPanel::refreshOutcomes);
+    connect(&workbook, &Workbook::currencyChanged, this, &StressPanel::refreshOutcomes);
     rebuild();
     refreshOutcomes();
+}
+
+void StressPanel::showEvent(QShowEvent *event)
+{
+    QWidget::showEvent(event);
+    m_workbook.results().setWatched(Part::Stress, true);
+}
+
+void StressPanel::hideEvent(QHideEvent *event)
+{
+    QWidget::hideEvent(event);
+    m_workbook.results().setWatched(Part::Stress, false);
+}
+
+const std::vector<StressOutcome> &StressPanel::outcomes() const
+{
+    static const std::vector<StressOutcome> none;
+    const auto &stress = m_workbook.results().stress();
+    return stress && *stress ? stress->value() : none;
 }
 
 int StressPanel::current() const
@@ -289,23 +312,21 @@ void StressPanel::commitShocksFromTable()
 
 void StressPanel::refreshOutcomes()
 {
-    m_outcomes.clear();
     m_outcomesTable->setRowCount(0);
-    if (!m_workbook.hasPrices() || m_workbook.holdings().empty())
+    const ResultsStore &store = m_workbook.results();
+    if (!m_workbook.hasPrices() || m_workbook.holdings().empty() || !store.stress())
         return;
-    auto run = runStress(m_workbook.prices(), m_workbook.holdings(), m_workbook.assumptions(), m_workbook.scenarios(),
-                         worstDayCount);
-    if (!run) {
-        m_note->setText(tr("No stress figures: %1").arg(QString::fromStdString(run.error().message)));
+    if (!*store.stress()) {
+        m_note->setText(tr("No stress figures: %1").arg(QString::fromStdString(store.stress()->error().message)));
         return;
     }
-    m_outcomes = std::move(run).value();
+    const std::vector<StressOutcome> &outcomes = store.stress()->value();
     // Shares of the net value, when there is a positive one (a share of nothing is not defined).
-    const double value = m_workbook.report() ? m_workbook.report()->portfolioValue : 0.0;
+    const double value = store.report() ? store.report()->portfolioValue : 0.0;
     const bool shares = value > 0.0 && std::isfinite(value);
-    m_outcomesTable->setRowCount(static_cast<int>(m_outcomes.size()));
-    for (std::size_t i = 0; i < m_outcomes.size(); ++i) {
-        const StressOutcome &o = m_outcomes[i];
+    m_outcomesTable->setRowCount(static_cast<int>(outcomes.size()));
+    for (std::size_t i = 0; i < outcomes.size(); ++i) {
+        const StressOutcome &o = outcomes[i];
         const int r = static_cast<int>(i);
         const QString name = o.date ? tr("Worst day %1 of the window").arg(r - static_cast<int>(m_workbook.scenarios().size()) + 1)
                                     : QString::fromStdString(o.name);

@@ -1,9 +1,9 @@
 #include "whatifpanel.h"
 
-#include "backgroundrun.h"
 #include "charts/losstailchart.h"
 #include "charts/losstailchartdata.h"
 #include "document/commands.h"
+#include "document/resultsstore.h"
 #include "document/workbook.h"
 #include "localnumbers.h"
 
@@ -47,7 +47,7 @@ QString signedMoney(double v)
 } // namespace
 
 WhatIfPanel::WhatIfPanel(Workbook &workbook, QWidget *parent)
-    : QWidget(parent), m_workbook(workbook), m_run(new BackgroundRun(this))
+    : QWidget(parent), m_workbook(workbook)
 {
     auto *intro = new QLabel(tr("Try trades before making them: add a row per asset and the change in quantity "
                                 "(negative to sell). Nothing changes until you apply."),
@@ -149,23 +149,49 @@ WhatIfPanel::WhatIfPanel(Workbook &workbook, QWidget *parent)
     });
     connect(m_apply, &QPushButton::clicked, this, &WhatIfPanel::apply);
     connect(m_discard, &QPushButton::clicked, this, &WhatIfPanel::discard);
+    ResultsStore &store = workbook.results();
     connect(m_stop, &QToolButton::clicked, this, [this] {
-        m_run->cancel();
+        m_workbook.results().cancel(Part::WhatIf);
         m_status->setText(tr("Stopped; change a trade to compute again."));
     });
-    connect(m_run, &BackgroundRun::progress, this, [this](double f) { m_progress->setValue(static_cast<int>(f * 100.0)); });
-    connect(m_run, &BackgroundRun::runningChanged, this, [this](bool running) {
+    connect(&store, &ResultsStore::progress, this, [this](Part part, double f) {
+        if (part == Part::WhatIf)
+            m_progress->setValue(static_cast<int>(f * 100.0));
+    });
+    connect(&store, &ResultsStore::statusChanged, this, [this](Part part) {
+        if (part != Part::WhatIf)
+            return;
+        const bool running = m_workbook.results().isRunning(Part::WhatIf);
         m_progress->setVisible(running);
         m_stop->setVisible(running);
-        if (running)
+        if (running) {
             m_progress->setValue(0);
+            m_status->setText(tr("Simulating before and after…"));
+        }
     });
-    // The holdings or assumptions changed: the same proposal, on the new portfolio.
-    connect(&workbook, &Workbook::resultsChanged, this, &WhatIfPanel::recompute);
-    connect(&workbook, &Workbook::currencyChanged, this, &WhatIfPanel::recompute);
+    // The store recomputes the same proposal on the new portfolio when the holdings or
+    // assumptions change (while this panel is in view).
+    connect(&store, &ResultsStore::whatIfChanged, this, &WhatIfPanel::refresh);
+    connect(&store, &ResultsStore::headlineChanged, this, [this] {
+        if (!m_workbook.results().whatIf())
+            refresh(); // the "now" curve without a proposal
+    });
+    connect(&workbook, &Workbook::currencyChanged, this, &WhatIfPanel::refresh);
     connect(&workbook, &Workbook::pricesChanged, this, &WhatIfPanel::refreshAssets);
     connect(&workbook, &Workbook::contentsReset, this, [this] { setTrades({}); });
-    recompute();
+    refresh();
+}
+
+void WhatIfPanel::showEvent(QShowEvent *event)
+{
+    QWidget::showEvent(event);
+    m_workbook.results().setWatched(Part::WhatIf, true);
+}
+
+void WhatIfPanel::hideEvent(QHideEvent *event)
+{
+    QWidget::hideEvent(event);
+    m_workbook.results().setWatched(Part::WhatIf, false);
 }
 
 void WhatIfPanel::refreshAssets()
@@ -244,66 +270,51 @@ void WhatIfPanel::proposalEdited()
 
 QString WhatIfPanel::problem() const
 {
-    return m_problem;
+    const auto &result = m_workbook.results().whatIf();
+    return result && !*result ? QString::fromStdString(result->error().message) : QString();
+}
+
+std::optional<WhatIf> WhatIfPanel::result() const
+{
+    const auto &result = m_workbook.results().whatIf();
+    if (!result || !*result)
+        return std::nullopt;
+    return result->value();
 }
 
 void WhatIfPanel::recompute()
 {
-    m_run->cancel();
-    const std::vector<Trade> proposal = trades();
+    std::vector<Trade> proposal = trades();
     const bool any = std::any_of(proposal.begin(), proposal.end(), [](const Trade &t) { return t.change != 0.0; });
-    if (!any || !m_workbook.hasPrices() || m_workbook.holdings().empty()) {
-        m_result.reset();
-        m_problem.clear();
-        show(fieldError(ErrorKind::InsufficientData, "trade", ""));
-        return;
-    }
-    if (m_workbook.assumptions().model != RiskModel::MonteCarlo) {
-        computeNow();
-        return;
-    }
-    m_status->setText(tr("Simulating before and after…"));
-    auto prices = std::make_shared<PriceHistory>(m_workbook.prices());
-    auto holdings = std::make_shared<Holdings>(m_workbook.holdings());
-    const Assumptions assumptions = m_workbook.assumptions();
-    m_run->start<WhatIf>(
-        [prices, holdings, assumptions, proposal](const RunControl &control) {
-            return whatIf(*prices, *holdings, assumptions, proposal, control);
-        },
-        [this](Result<WhatIf> r) { show(std::move(r)); });
+    if (!any)
+        proposal.clear(); // nothing would change: nothing to compute
+    m_workbook.results().setWhatIfTrades(std::move(proposal));
+    refresh();
 }
 
 void WhatIfPanel::computeNow()
 {
-    m_run->cancel();
-    const std::vector<Trade> proposal = trades();
-    if (proposal.empty() || !m_workbook.hasPrices() || m_workbook.holdings().empty()) {
-        m_result.reset();
-        show(fieldError(ErrorKind::InsufficientData, "trade", ""));
-        return;
-    }
-    show(whatIf(m_workbook.prices(), m_workbook.holdings(), m_workbook.assumptions(), proposal));
+    m_workbook.results().computeNow(Part::WhatIf);
 }
 
-void WhatIfPanel::show(Result<WhatIf> result)
+void WhatIfPanel::refresh()
 {
+    const auto &stored = m_workbook.results().whatIf();
     m_contributions->setRowCount(0);
-    if (!result) {
-        m_result.reset();
-        m_problem = QString::fromStdString(result.error().message);
+    if (!stored || !*stored) {
+        const QString why = problem();
         m_figures->setText(QString());
-        m_status->setText(m_problem.isEmpty() ? tr("Add a trade to see what it would do.")
-                                              : tr("No figures: %1").arg(m_problem));
+        if (!m_workbook.results().isRunning(Part::WhatIf))
+            m_status->setText(why.isEmpty() ? tr("Add a trade to see what it would do.") : tr("No figures: %1").arg(why));
         m_apply->setEnabled(false);
         m_discard->setEnabled(m_trades->rowCount() > 0);
         LossTailOptions now;
         now.currency = m_workbook.currency();
-        m_chart->setData(m_workbook.report() ? buildLossTailChartData(*m_workbook.report(), now) : LossTailChartData{});
+        const auto &report = m_workbook.results().report();
+        m_chart->setData(report ? buildLossTailChartData(*report, now) : LossTailChartData{});
         return;
     }
-    m_result = std::move(result).value();
-    m_problem.clear();
-    const WhatIf &w = *m_result;
+    const WhatIf &w = stored->value();
     const WhatIfFigures &f = w.figures;
     const QString row = QStringLiteral("<tr><td>%1</td><td align=right>&nbsp;&nbsp;<b>%2</b></td></tr>");
     QString html = QStringLiteral("<table>");

@@ -6,7 +6,8 @@
 // the panel shows them, and draws the after-trade loss tail with the current portfolio as a ghost
 // curve. Apply makes the trades one undo step (edit::replaceHoldings with core's applyTrades);
 // Discard clears the proposal. Monte Carlo runs in the background with progress and a stop
-// button; the closed-form models inline.
+// button; the closed-form models inline. The proposal is the results store's what-if input, and
+// the figures are its what-if part (document/resultsstore.h), recomputed while the panel is shown.
 #pragma once
 
 #include "tailwise/whatif.h"
@@ -24,7 +25,6 @@ class QToolButton;
 
 namespace tailwise::ui {
 
-class BackgroundRun;
 class LossTailChart;
 class Workbook;
 
@@ -38,7 +38,7 @@ public:
     // Replaces the proposal (tests, and the Discard button with an empty list).
     void setTrades(const std::vector<tailwise::Trade> &trades);
     // The latest figures for the proposal; empty without trades, or when core refused them.
-    const std::optional<tailwise::WhatIf> &result() const { return m_result; }
+    std::optional<tailwise::WhatIf> result() const;
     QString problem() const;
     // Computes now, on this thread, whatever the model (tests, screenshots).
     void computeNow();
@@ -49,11 +49,15 @@ public:
     LossTailChart *chart() const { return m_chart; }
     QTableWidget *contributionsTable() const { return m_contributions; }
 
+protected:
+    void showEvent(QShowEvent *event) override;
+    void hideEvent(QHideEvent *event) override;
+
 private:
     void addTradeRow(const tailwise::Trade &trade);
     void proposalEdited();
     void recompute();
-    void show(tailwise::Result<tailwise::WhatIf> result);
+    void refresh();
     void refreshAssets();
 
     Workbook &m_workbook;
@@ -68,9 +72,6 @@ private:
     QPushButton *m_discard = nullptr;
     QProgressBar *m_progress = nullptr;
     QToolButton *m_stop = nullptr;
-    BackgroundRun *m_run = nullptr;
-    std::optional<tailwise::WhatIf> m_result;
-    QString m_problem;
     bool m_filling = false; // the table is being filled by code, not edited
 };
 
