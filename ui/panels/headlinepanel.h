@@ -26,7 +26,6 @@ public:
 
 private:
     void refresh();
-    void refreshLimits(const tailwise::RiskReport &report);
 
     Workbook &m_workbook;
     QLabel *m_title = nullptr;
@@ -38,7 +37,6 @@ private:
     QLabel *m_currency = nullptr; // the workbook's currency code, beside the portfolio value
     QLabel *m_sentence = nullptr;
     QLabel *m_notes = nullptr;
-    QLabel *m_limits = nullptr; // the workbook's limits: each one's use and state, in words
     QWidget *m_figures = nullptr;
 };
 
