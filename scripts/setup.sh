@@ -10,7 +10,7 @@ TAILWISE_PACKAGES=(
   clang libclang-rt-14-dev
   poppler-utils python3-numpy python3-scipy
   python3-pandas libopenblas-dev libfast-float-dev
-  libcli11-dev
+  libcli11-dev libsqlite3-dev libxlsxwriter-dev python3-openpyxl dpkg-dev
 )
 
 tailwise_install_packages() {

@@ -4,11 +4,14 @@
 
 #include "backtestoptions.h"
 #include "backtestprint.h"
+#include "dailyrun.h"
+#include "tableexports.h"
 #include "optiongroups.h"
 #include "workbookinput.h"
 
 #include "document/backtestrequest.h"
 
+#include "tailwise/asof.h"
 #include "tailwise/backtest.h"
 #include "tailwise/holdings.h"
 #include "tailwise/prices.h"
@@ -17,14 +20,21 @@
 
 namespace tailwise::cli {
 
-int runBacktestCommand(const std::vector<std::string> &args)
+int runBacktestCommand(const std::vector<std::string> &argsIn)
 {
+    std::vector<std::string> args = argsIn;
+    DailyOptions daily; // --as-of, --xlsx (dailyrun.h)
+    if (const auto taken = takeDailyOptions(args, daily, {"--as-of", "--xlsx"}); !taken)
+        return fail(exitUsage, taken.error().message);
+    const auto settings = applyDailyOptions(daily, {});
+    if (!settings)
+        return fail(exitUsage, settings.error().message);
     auto parsed = parseBacktestOptions(args);
     if (!parsed)
         return fail(exitUsage, parsed.error().message);
     const BacktestOptions &options = parsed.value();
     if (options.help) {
-        std::fputs(backtestHelpText().c_str(), stdout);
+        std::fputs((backtestHelpText() + "\nAlso: --as-of DATE (the history ends there), --xlsx FILE (the days and the exceptions, one sheet each).\n").c_str(), stdout);
         return exitOk;
     }
     BacktestRequest request;
@@ -50,12 +60,19 @@ int runBacktestCommand(const std::vector<std::string> &args)
         request.holdings = std::move(holdings).value();
         request.assumptions = options.assumptions;
     }
+    if (settings.value().asOf) {
+        auto cut = cutHistoryAt(request.prices, *settings.value().asOf);
+        if (!cut)
+            return fail(exitBadInput, "--as-of" + cut.error().message.substr(cut.error().field.size()));
+        request.prices = std::move(cut).value();
+    }
+    const RunStamp stamp = makeStamp(request.prices, request.holdings, request.assumptions, settings.value().asOf);
     const auto result = runBacktest(request);
     if (!result)
         return fail(exitBadInput, messageFor(result.error()));
     const BacktestResult &r = result.value();
     if (options.json) {
-        std::fputs(backtestJson(r, options.series).c_str(), stdout);
+        std::fputs(withStampJson(backtestJson(r, options.series), stamp).c_str(), stdout);
         for (const auto &w : r.warnings)
             std::fprintf(stderr, "tailwise-cli: warning: %s\n", w.c_str());
     } else {
@@ -63,8 +80,11 @@ int runBacktestCommand(const std::vector<std::string> &args)
         const std::string holdingsName = options.workbookPath.empty() ? options.holdingsPath : options.workbookPath + " (workbook)";
         const BacktestPrintInput input{r, pricesName, holdingsName,
                                        static_cast<int>(request.holdings.size()), options.series};
-        std::fputs(backtestText(input).c_str(), stdout);
+        std::fputs((backtestText(input) + stampText(stamp)).c_str(), stdout);
     }
+    if (!daily.xlsx.empty())
+        if (const auto written = xlsx::writeXlsx(daily.xlsx, backtestTables(r)); !written)
+            return fail(exitBadInput, written.error().message);
     return exitOk;
 }
 

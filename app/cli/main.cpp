@@ -1,6 +1,10 @@
 // tailwise-cli: the command line over the core. Thin: parse, call core, print.
-// Exit status: 0 success, 1 bad input data, 2 bad usage.
+// Exit status: 0 success, 1 bad input data, 2 bad usage, 3 a limit breached with --fail-on-breach.
 #include "backtestcommand.h"
+#include "batchcommand.h"
+#include "dailyrun.h"
+#include "historycommand.h"
+#include "tableexports.h"
 #include "reportprint.h"
 #include "exitstatus.h"
 #include "optiongroups.h"
@@ -13,8 +17,12 @@
 
 #include "gridprint.h"
 
+#include "tailwise/asof.h"
 #include "tailwise/modelgrid.h"
 #include "tailwise/holdings.h"
+#include "tailwise/sha256.h"
+#include "tailwise/inputhash.h"
+#include "tailwise/version.h"
 #include "tailwise/prices.h"
 #include "tailwise/risk.h"
 
@@ -22,6 +30,7 @@
 #include <chrono>
 #include <cstring>
 #include <exception>
+#include <filesystem>
 #include <new>
 
 #include <unistd.h>
@@ -44,6 +53,9 @@ Usage:
   tailwise-cli var [options]     risk figures of a portfolio (tailwise-cli var --help)
   tailwise-cli backtest [options]  would the VaR have held up? (tailwise-cli backtest --help)
   tailwise-cli pack [options]    make a workbook (.tailwise) from CSV files (tailwise-cli pack --help)
+  tailwise-cli batch WORKBOOK... | --list FILE
+                                 many workbooks at once (tailwise-cli batch --help)
+  tailwise-cli history FILE.db   the recorded figures (tailwise-cli history --help)
   tailwise-cli render WORKBOOK --chart KIND --out FILE
                                  draw a chart to PNG, SVG or PDF (tailwise-cli render --help)
   tailwise-cli report WORKBOOK --out FILE.pdf
@@ -52,9 +64,13 @@ Usage:
   tailwise-cli --version
 )";
 
-int runVar(const std::vector<std::string> &args)
+int runVar(std::vector<std::string> args)
 {
     using namespace tailwise;
+    cli::DailyOptions daily; // --as-of, --limit, --fail-on-breach, --record, --xlsx (dailyrun.h)
+    if (const auto taken = cli::takeDailyOptions(args, daily, {"--as-of", "--limit", "--fail-on-breach", "--record", "--xlsx"});
+        !taken)
+        return fail(exitUsage, taken.error().message);
     const auto started = std::chrono::steady_clock::now();
     auto msSinceStart = [&] {
         return std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - started).count();
@@ -65,9 +81,11 @@ int runVar(const std::vector<std::string> &args)
     if (!request)
         return fail(exitUsage, request.error().message);
     if (request.value().help) {
-        std::fputs(cli::varHelpText().c_str(), stdout);
+        std::fputs((cli::varHelpText() + cli::dailyHelpText()).c_str(), stdout);
         return exitOk;
     }
+    if (const auto checked = cli::applyDailyOptions(daily, {}); !checked)
+        return fail(exitUsage, checked.error().message);
     std::optional<ui::WorkbookContents> workbook;
     if (!request.value().workbookPath.empty()) {
         auto loaded = cli::readWorkbookInput(request.value().workbookPath);
@@ -81,6 +99,16 @@ int runVar(const std::vector<std::string> &args)
             return fail(exitUsage, request.error().message);
     }
     const auto &req = request.value();
+    auto settings = cli::applyDailyOptions(daily, {});
+    if (!settings)
+        return fail(exitUsage, settings.error().message);
+    if (req.single && (settings.value().asOf || !daily.record.empty()))
+        return fail(exitUsage, std::string(settings.value().asOf ? "--as-of" : "--record")
+                                   + ": needs a price history (--workbook, or --prices with --holdings), not --value");
+    // The inputs as used (after the as-of cut), for the stamp and the record.
+    PriceHistory usedPrices;
+    Holdings usedHoldings;
+    std::string recordName;
     Result<RiskReport> report = Error{};
     Result<cli::ReportExtras> extras = cli::ReportExtras{};
     cli::RunTimings timings;
@@ -91,6 +119,16 @@ int runVar(const std::vector<std::string> &args)
         report = computeSinglePositionRisk(*req.single, req.assumptions, control);
     } else if (workbook) {
         timings.loadMs = msSinceStart(); // the workbook was read before the options were parsed
+        if (settings.value().asOf) {
+            auto cut = cutHistoryAt(workbook->prices, *settings.value().asOf);
+            if (!cut)
+                return fail(exitBadInput, "--as-of" + cut.error().message.substr(cut.error().field.size()));
+            workbook->prices = std::move(cut).value();
+        }
+        usedPrices = workbook->prices;
+        usedHoldings = workbook->holdings;
+        recordName = workbook->title.isEmpty() ? std::filesystem::path(req.workbookPath).stem().string()
+                                               : workbook->title.toStdString();
         report = computeRisk(workbook->prices, workbook->holdings, req.assumptions, control);
         if (report)
             extras = cli::computeExtras(req.models, workbook->prices, workbook->holdings, req.assumptions);
@@ -103,6 +141,15 @@ int runVar(const std::vector<std::string> &args)
         if (!holdings)
             return fail(exitBadInput, holdings.error().message);
         timings.loadMs = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - loading).count();
+        if (settings.value().asOf) {
+            auto cut = cutHistoryAt(prices.value(), *settings.value().asOf);
+            if (!cut)
+                return fail(exitBadInput, "--as-of" + cut.error().message.substr(cut.error().field.size()));
+            prices = std::move(cut).value();
+        }
+        usedPrices = prices.value();
+        usedHoldings = holdings.value();
+        recordName = std::filesystem::path(req.holdingsPath).stem().string();
         report = computeRisk(prices.value(), holdings.value(), req.assumptions, control);
         if (report)
             extras = cli::computeExtras(req.models, prices.value(), holdings.value(), req.assumptions);
@@ -119,6 +166,23 @@ int runVar(const std::vector<std::string> &args)
             return fail(exitBadInput, messageFor(grid.error()));
         extras.value().grid = std::move(grid).value();
     }
+    const RiskReport &figures = report.value();
+    auto limitUses = evaluateLimits(settings.value().limits, {figures.figures.var, figures.figures.es, figures.portfolioValue});
+    if (!limitUses)
+        return fail(exitBadInput, messageFor(limitUses.error()));
+    extras.value().limits = limitUses.value();
+    if (req.single) {
+        // No price history: the position and the assumptions are the inputs.
+        cli::RunStamp stamp;
+        stamp.toolVersion = toolVersion();
+        stamp.inputSha256 = sha256Hex("single-position\nvalue=" + formatShortest(req.single->value) + "\nvolatility="
+                                      + formatShortest(req.single->annualVolatility) + "\ndrift="
+                                      + formatShortest(req.single->annualDrift) + "\n"
+                                      + canonicalAssumptionsText(req.assumptions));
+        extras.value().stamp = stamp;
+    } else {
+        extras.value().stamp = cli::makeStamp(usedPrices, usedHoldings, req.assumptions, settings.value().asOf);
+    }
     const bool single = req.single.has_value();
     std::optional<cli::RunTimings> shownTimings;
     if (req.timings)
@@ -129,6 +193,20 @@ int runVar(const std::vector<std::string> &args)
     if (req.json)
         for (const auto &w : report.value().warnings)
             std::fprintf(stderr, "tailwise-cli: warning: %s\n", w.c_str());
+    if (!daily.record.empty()) {
+        auto store = store::HistoryStore::open(daily.record);
+        if (!store)
+            return fail(exitBadInput, store.error().message);
+        const auto record = cli::makeRunRecord(recordName, figures, *extras.value().stamp, usedPrices, usedHoldings,
+                                               extras.value().limits);
+        if (const auto recorded = cli::recordRun(store.value(), record); !recorded)
+            return fail(exitBadInput, recorded.error().message);
+    }
+    if (!daily.xlsx.empty())
+        if (const auto written = cli::writeVarWorkbook(daily.xlsx, figures, extras.value()); !written)
+            return fail(exitBadInput, written.error().message);
+    if (daily.failOnBreach && anyBreached(extras.value().limits))
+        return cli::exitBreach;
     return exitOk;
 }
 
@@ -145,7 +223,7 @@ int runCommand(const std::vector<std::string> &args)
         return exitOk;
     }
     if (args[0] == "--version") {
-        std::puts("tailwise-cli 0.1.0");
+        std::printf("tailwise-cli %s\n", tailwise::toolVersion());
         return exitOk;
     }
     if (args[0] == "var")
@@ -154,11 +232,15 @@ int runCommand(const std::vector<std::string> &args)
         return tailwise::cli::runPackCommand({args.begin() + 1, args.end()});
     if (args[0] == "backtest")
         return tailwise::cli::runBacktestCommand({args.begin() + 1, args.end()});
+    if (args[0] == "batch")
+        return tailwise::cli::runBatchCommand({args.begin() + 1, args.end()});
+    if (args[0] == "history")
+        return tailwise::cli::runHistoryCommand({args.begin() + 1, args.end()});
     if (args[0] == "render")
         return tailwise::cli::runRenderCommand({args.begin() + 1, args.end()});
     if (args[0] == "report")
         return tailwise::cli::runPdfReportCommand({args.begin() + 1, args.end()});
-    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest, pack, render, report)");
+    return fail(exitUsage, "unknown command \"" + args[0] + "\" (expected: var, backtest, pack, batch, history, render, report)");
 }
 
 } // namespace

@@ -116,6 +116,7 @@ std::string reportText(const RiskReport &r, bool single, const ReportExtras &ext
             out += "                    negative: under this model VaR is not subadditive here - the portfolio's VaR\n"
                    "                    is larger than the sum of the holdings' own VaRs\n";
     }
+    out += limitsText(extras.limits, extras.currency);
     out += "\nIn words: over " + horizonWords(a.horizonDays) + ", the loss is not expected to exceed "
            + money(r.figures.var) + unit + " with " + confidenceText(a.confidence)
            + " confidence; in the worst " + confidenceText(1.0 - a.confidence) + " of cases the average loss is "
@@ -146,6 +147,8 @@ std::string reportText(const RiskReport &r, bool single, const ReportExtras &ext
     if (extras.grid)
         out += gridText(r, *extras.grid);
     out += extrasText(extras);
+    if (extras.stamp)
+        out += stampText(*extras.stamp);
     if (!r.warnings.empty()) {
         out += "\nWarnings\n";
         for (const auto &w : r.warnings)
@@ -166,11 +169,15 @@ std::string reportText(const RiskReport &r, bool single, const ReportExtras &ext
 }
 
 std::string reportJson(const RiskReport &r, bool single, const ReportExtras &extras,
-                       const std::optional<RunTimings> &timings)
+                       const std::optional<RunTimings> &timings, int indent)
 {
     const auto &a = r.assumptions;
-    JsonWriter j;
+    JsonWriter j(indent);
     j.beginObject();
+    if (extras.workbook)
+        j.key("workbook").value(*extras.workbook);
+    if (extras.stamp)
+        writeStampJson(j, *extras.stamp);
     if (!extras.currency.empty()) // the workbook's currency code; absent when it states none
         j.key("currency").value(extras.currency);
     j.key("portfolio_value").value(r.portfolioValue);
@@ -222,6 +229,8 @@ std::string reportJson(const RiskReport &r, bool single, const ReportExtras &ext
     if (extras.grid)
         writeGridJson(j, r, *extras.grid);
     writeExtrasJson(j, extras);
+    if (extras.stamp)
+        writeLimitsJson(j, extras.limits);
     if (timings) {
         j.key("timings_ms").beginObject();
         j.key("load").value(timings->loadMs);

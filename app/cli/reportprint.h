@@ -22,7 +22,8 @@ struct RunTimings {
 // "timings_ms" object (JSON) or a closing line (text), when given.
 std::string reportText(const RiskReport &report, bool singlePosition, const ReportExtras &extras = {},
                        const std::optional<RunTimings> &timings = std::nullopt);
+// `indent` 0: one line (batch's JSONL).
 std::string reportJson(const RiskReport &report, bool singlePosition, const ReportExtras &extras = {},
-                       const std::optional<RunTimings> &timings = std::nullopt);
+                       const std::optional<RunTimings> &timings = std::nullopt, int indent = 2);
 
 } // namespace tailwise::cli

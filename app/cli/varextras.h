@@ -2,6 +2,7 @@
 // the stress outcomes, both from core (whatif.h, stress.h).
 #pragma once
 
+#include "dailyrun.h"
 #include "modeloptions.h"
 
 #include "tailwise/grid.h"
@@ -21,6 +22,9 @@ struct ReportExtras {
     std::optional<std::vector<StressOutcome>> stress;
     std::string currency; // the workbook's currency code (e.g. "EUR"); empty: not stated
     std::optional<RiskGrid> grid; // --grid: horizons × confidences under the chosen model
+    std::optional<RunStamp> stamp; // version, as-of date, seed, input hash (dailyrun.h)
+    std::vector<LimitUse> limits;  // each limit's use and state
+    std::optional<std::string> workbook; // batch: the workbook as listed, the JSON line's first key
 };
 
 // Reads the scenario files and runs the what-if and the stress. Errors: a scenario file's error

@@ -170,7 +170,8 @@ void TestCliBacktest::jsonHasExactlyTheKeys()
     const QJsonObject j = QJsonDocument::fromJson(r.out.toUtf8()).object();
     const QStringList top = j.keys();
     QCOMPARE(QSet<QString>(top.begin(), top.end()),
-             (QSet<QString>{"observations", "exceptions", "expected_exceptions", "kupiec", "christoffersen", "zone"}));
+             (QSet<QString>{"tool_version", "as_of", "input_sha256", "observations", "exceptions", "expected_exceptions",
+                            "kupiec", "christoffersen", "zone"}));
     const QStringList kupiec = j["kupiec"].toObject().keys();
     QCOMPARE(QSet<QString>(kupiec.begin(), kupiec.end()), (QSet<QString>{"lr", "p_value"}));
     const QStringList ch = j["christoffersen"].toObject().keys();

@@ -80,8 +80,10 @@ void TestCliWorkbook::sampleWorkbookGivesTheFiguresOfItsCsvs()
     const Run fromCsv = cli(QStringList{"var"} + csvInputs() + sampleAssumptions + QStringList{"--json"});
     TW_RUN_OK(fromCsv);
     // Same bytes: every figure (VaR, ES, each contribution, the window's dates) is identical; the
-    // workbook's output adds only its currency.
-    QVERIFY2(fromWorkbook.out.startsWith("{\n  \"currency\": \"EUR\",\n"), fromWorkbook.out.left(80).constData());
+    // workbook's output adds only its currency, after the run's stamp (version, as-of date, input hash:
+    // the same inputs, so the same hash).
+    QVERIFY2(fromWorkbook.out.startsWith("{\n  \"tool_version\": "), fromWorkbook.out.left(80).constData());
+    QVERIFY(fromWorkbook.out.contains("\",\n  \"currency\": \"EUR\",\n"));
     QCOMPARE(withoutCurrency(fromWorkbook.out), fromCsv.out);
     QVERIFY(!fromCsv.out.contains("currency"));
     const double var = figure(fromWorkbook.out, "var");
