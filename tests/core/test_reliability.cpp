@@ -2,6 +2,7 @@
 // part-way (every byte position), a replaced device, an output that is an input, confidences at
 // the edges, hostile text, unusable prices, Cornish–Fisher outside its monotone domain, figures
 // that need a caution, and a book too large to estimate.
+#include "../fulldiskwrite.h"
 #include "tailwise/assumptions.h"
 #include "tailwise/cornishfisher.h"
 #include "tailwise/filewrite.h"
@@ -28,19 +29,7 @@ using namespace tailwise;
 
 namespace {
 
-// A stub for write(2): lets `budget` bytes through in all, then fails with ENOSPC (a full disk);
-// a write that crosses the budget is cut short, as a real file system does.
-std::size_t g_budget = 0;
-ssize_t limitedWrite(int fd, const void *data, std::size_t size)
-{
-    if (g_budget == 0) {
-        errno = ENOSPC;
-        return -1;
-    }
-    const std::size_t n = std::min(size, g_budget);
-    g_budget -= n;
-    return ::write(fd, data, n);
-}
+using tailwise::test::limitedWrite;
 int failingFsync(int) { errno = EIO; return -1; }
 
 std::string readAll(const std::string &path)
@@ -85,7 +74,7 @@ private slots:
         RestoreWrites restore;
         testing::setFileWriteFunctions(limitedWrite);
         for (std::size_t n = 0; n < next.size(); ++n) {
-            g_budget = n;
+            tailwise::test::g_writeBudget = n;
             const Status s = writeFileReplacing(path, next);
             QVERIFY2(!s.ok(), qPrintable(QString("a write failing after %1 bytes was reported as saved").arg(n)));
             QVERIFY2(s.error().message.find("could not save " + path + ": No space left on device") != std::string::npos,
@@ -93,7 +82,7 @@ private slots:
             QCOMPARE(readAll(path), old);
             QCOMPARE(filesIn(dir.path()), 1);
         }
-        g_budget = next.size(); // exactly enough: saved
+        tailwise::test::g_writeBudget = next.size(); // exactly enough: saved
         QVERIFY(writeFileReplacing(path, next).ok());
         QCOMPARE(readAll(path), next);
         // fsync failing (a full disk or quota often shows only there): not saved, old file kept.

@@ -2,6 +2,7 @@
 // a save: the message gives the system's reason, the workbook keeps its unsaved mark and its
 // contents, and the file saved before is byte-for-byte what it was. The disk is a stub of
 // write(2) that fails after a number of bytes (tailwise/filewrite.h's test hook).
+#include "../fulldiskwrite.h"
 #include "document/commands.h"
 #include "document/workbook.h"
 #include "document/workbookfile.h"
@@ -24,17 +25,7 @@ using namespace tailwise::ui::test;
 
 namespace {
 
-std::size_t g_budget = 0;
-ssize_t limitedWrite(int fd, const void *data, std::size_t size)
-{
-    if (g_budget == 0) {
-        errno = ENOSPC;
-        return -1;
-    }
-    const std::size_t n = std::min(size, g_budget);
-    g_budget -= n;
-    return ::write(fd, data, n);
-}
+using tailwise::test::limitedWrite;
 
 QByteArray readAll(const QString &path)
 {
@@ -62,7 +53,7 @@ private slots:
         const qsizetype size = workbookJson(wb.contents()).value().size();
         testing::setFileWriteFunctions(limitedWrite);
         for (const qsizetype n : {qsizetype(0), qsizetype(1), size / 2, size - 1}) {
-            g_budget = static_cast<std::size_t>(n);
+            tailwise::test::g_writeBudget = static_cast<std::size_t>(n);
             const QString problem = w->saveWorkbookFile(path);
             QVERIFY2(problem.contains(QStringLiteral("No space left on device")), qPrintable(problem));
             QVERIFY2(problem.contains(path), qPrintable(problem));
