@@ -66,7 +66,7 @@ QString scalingLabel(MultiDayScaling scaling)
 QString scalingNote(MultiDayScaling scaling)
 {
     return scaling == MultiDayScaling::Aggregate
-               ? tr("Longer horizons apply the model to the H-day sum, whose tails are thinner than one day's.")
+               ? tr("Longer horizons apply the model to the sum of H days rather than scaling one day by √H.")
                : tr("Longer horizons scale one day by √H, keeping one day's tails.");
 }
 
