@@ -373,6 +373,8 @@ private slots:
             // The sum of ten days has thinner tails than one day: a smaller 99% VaR on the sample.
             QVERIFY(expected.value().figures.var < rootVar);
             QVERIFY2(note->text().contains(QStringLiteral("10-day sum")), qPrintable(note->text()));
+            // The loss tail in view follows: its VaR line is the new headline's.
+            QTRY_COMPARE(window->chartTabs()->lossTailChart()->data().tailBoundary, -expected.value().figures.var);
             picture(window.get(), model == RiskModel::StudentT ? "scaling-student-t" : "scaling-cornish-fisher");
 
             wb.undoStack()->undo();
