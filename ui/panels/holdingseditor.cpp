@@ -264,6 +264,7 @@ QString HoldingsEditor::importHoldingsFile(const QString &path)
         return problem;
     }
     edit::replaceHoldings(m_workbook, read.value(), tr("Import holdings from %1").arg(QFileInfo(path).fileName()));
+    m_workbook.noteImportedFrom(path);
     report({}, countText(static_cast<int>(read.value().size()), tr("Imported 1 holding from %2."), tr("Imported %1 holdings from %2."))
                    .replace(QLatin1String("%2"), QFileInfo(path).fileName()));
     return {};
@@ -271,6 +272,8 @@ QString HoldingsEditor::importHoldingsFile(const QString &path)
 
 QString HoldingsEditor::exportHoldingsFile(const QString &path) const
 {
+    if (const QString refusal = refusalToOverwriteInput(path, m_workbook.inputFiles()); !refusal.isEmpty())
+        return refusal;
     const std::string csv = writeHoldingsCsv(m_workbook.holdings());
     if (auto saved = saveFile(path, QByteArray(csv.data(), static_cast<qsizetype>(csv.size()))); !saved)
         return QString::fromStdString(saved.error().message);
