@@ -12,6 +12,7 @@
 #include "panels/assumptionspane.h"
 #include "panels/cautionsnote.h"
 #include "text/cautions.h"
+#include "text/names.h"
 #include "panels/charttabs.h"
 #include "panels/headlinepanel.h"
 #include "panels/holdingseditor.h"
@@ -213,7 +214,7 @@ void MainWindow::connectActions()
 void MainWindow::updateTitle()
 {
     const QString path = m_workbook->filePath();
-    const QString name = path.isEmpty() ? tr("Untitled") : QFileInfo(path).fileName();
+    const QString name = path.isEmpty() ? tr("Untitled") : shortText(QFileInfo(path).fileName(), shortTitleChars);
     setWindowTitle(tr("%1[*] — Tailwise").arg(name));
     setWindowFilePath(path);
     setWindowModified(m_workbook->isModified());

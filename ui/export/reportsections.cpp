@@ -5,6 +5,7 @@
 #include "text/backtestwords.h"
 #include "text/cautions.h"
 #include "text/headline.h"
+#include "text/names.h"
 #include "text/version.h"
 #include "text/numbers.h"
 
@@ -170,7 +171,7 @@ void addContributions(Document &doc, const RiskReport &r, const ChartFigure &cha
                  {tr("Contribution to ES"), true, 1.45}};
     double exposure = 0, alone = 0, component = 0, componentEs = 0;
     for (const HoldingRisk &h : r.holdings) {
-        t.rows.push_back({str(h.asset), moneyText(h.exposure, 0), percentText(h.weight, 1),
+        t.rows.push_back({shortName(str(h.asset)), moneyText(h.exposure, 0), percentText(h.weight, 1),
                           moneyText(h.standaloneVar, 0), moneyText(h.componentVar, 0),
                           percentText(h.componentShare, 1), moneyText(h.componentEs, 0)});
         exposure += h.exposure;

@@ -4,6 +4,7 @@
 #include "document/resultsstore.h"
 #include "document/savefile.h"
 #include "document/workbook.h"
+#include "panels/tablecolumns.h"
 #include "holdingspaste.h"
 #include "text/numbers.h"
 #include "models/holdingsmodel.h"
@@ -118,12 +119,12 @@ HoldingsEditor::HoldingsEditor(Workbook &workbook, QWidget *parent) : QWidget(pa
     // Fit columns to their content when a new set of holdings arrives (open, import, first results).
     // Risk columns fill in with the first results, so they are fitted again then.
     connect(m_model, &QAbstractItemModel::modelReset, this, [this] {
-        m_view->resizeColumnsToContents();
+        fitColumnsCapped(m_view);
         m_fitPending = true;
     });
     connect(&workbook.results(), &ResultsStore::headlineChanged, this, [this] {
         if (m_fitPending && m_workbook.results().report()) {
-            m_view->resizeColumnsToContents();
+            fitColumnsCapped(m_view);
             m_fitPending = false;
         }
     });
