@@ -23,6 +23,32 @@ std::string general(double v)
     return buffer;
 }
 
+// The multi-day convention in words (Student-t and Cornish-Fisher; multidayscaling.h).
+std::string scalingText(const RiskReport &r)
+{
+    const ModelDetails &m = r.model;
+    const Assumptions &a = r.assumptions;
+    const std::string days = std::to_string(a.horizonDays);
+    std::string out = "Longer horizons     ";
+    if (a.scaling == MultiDayScaling::SquareRoot) {
+        out += "square root of time: the one-day figure times the square root of the horizon, with one day's shape";
+    } else if (m.used == RiskModel::StudentT) {
+        out += "the model applied to the sum of the horizon's days";
+        if (a.horizonDays > 1)
+            out += !(*m.dof > 4.0) ? ": degrees of freedom kept at " + general(*m.dof) + " (4 or fewer; see the warnings)"
+                                   : ": " + general(m.horizonDof.value_or(*m.dof)) + " degrees of freedom for the " + days
+                                         + "-day sum";
+    } else {
+        out += "the model applied to the sum of the horizon's days";
+        if (a.horizonDays > 1 && m.horizonShape)
+            out += ": skewness " + general(m.horizonShape->skewness) + ", excess kurtosis "
+                   + general(m.horizonShape->excessKurtosis) + " of the " + days + "-day sum";
+    }
+    if (a.horizonDays == 1)
+        out += " (the same figure either way at one day)";
+    return out + "\n";
+}
+
 } // namespace
 
 void writeModelAssumptionsJson(JsonWriter &j, const Assumptions &a)
@@ -42,6 +68,8 @@ void writeModelAssumptionsJson(JsonWriter &j, const Assumptions &a)
     }
     if (a.model == RiskModel::Historical)
         j.key("hs_horizon").value(toName(a.historicalHorizon));
+    if (a.model == RiskModel::StudentT || a.model == RiskModel::CornishFisher)
+        j.key("scaling").value(toName(a.scaling));
     if (a.model == RiskModel::MonteCarlo) {
         j.key("simulations").value(a.simulations);
         j.key("seed").value(static_cast<double>(a.seed));
@@ -63,9 +91,15 @@ void writeModelJson(JsonWriter &j, const RiskReport &r)
         j.key("dof").value(*m.dof);
         j.key("dof_fitted").value(m.dofFitted);
     }
+    if (m.horizonDof)
+        j.key("horizon_dof").value(*m.horizonDof);
     if (m.shape) {
         j.key("skewness").value(m.shape->skewness);
         j.key("excess_kurtosis").value(m.shape->excessKurtosis);
+    }
+    if (m.horizonShape) {
+        j.key("horizon_skewness").value(m.horizonShape->skewness);
+        j.key("horizon_excess_kurtosis").value(m.horizonShape->excessKurtosis);
     }
     if (m.cornishFisherMonotone)
         j.key("cornish_fisher_monotone").value(*m.cornishFisherMonotone);
@@ -146,11 +180,13 @@ std::string modelText(const RiskReport &r)
         out += "Model               Student-t, " + general(*m.dof) + " degrees of freedom"
                + (m.dofFitted ? " (fitted from the P&L's excess kurtosis " + general(m.shape->excessKurtosis) + ")" : "")
                + ", scaled to the covariance's variance\n";
+        out += scalingText(r);
         break;
     case RiskModel::CornishFisher:
         out += "Model               Cornish-Fisher, skewness " + general(m.shape->skewness) + ", excess kurtosis "
                + general(m.shape->excessKurtosis) + " of the window's daily P&L"
                + (m.cornishFisherMonotone.value_or(true) ? "" : " (expansion not monotone)") + "\n";
+        out += scalingText(r);
         break;
     case RiskModel::Historical:
         out += "Model               historical, " + std::to_string(m.scenarios)

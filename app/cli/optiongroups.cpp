@@ -271,6 +271,12 @@ void declareModelOptions(CommandLine &line, ModelOptions &o, Command command)
                "historical, horizon over 1 day: 'sqrt' scales the one-day figures by the\n"
                "square root of the horizon (default); 'overlapping' uses sums of\n"
                "consecutive daily P&L (overlapping, so fewer independent observations)");
+    line.value("--scaling", o.scaling, "KIND",
+               "student-t and cornish-fisher, horizon over 1 day: 'sqrt' multiplies the\n"
+               "one-day figure by the square root of the horizon, keeping the one-day\n"
+               "shape (default); 'aggregate' applies the model to the sum of the days:\n"
+               "skewness S/sqrt(H), excess kurtosis K/H, Student-t degrees of freedom\n"
+               "4 + H(nu - 4) (kept when nu <= 4), so longer horizons are less fat-tailed");
     line.value("--simulations", o.simulations, "N",
                "monte-carlo draws, 1000 to 10000000 (default 100000); more draws, smaller\nstandard error");
     line.value("--seed", o.seed, "S",
@@ -306,6 +312,12 @@ Status applyModelOptions(const ModelOptions &o, Assumptions &a, Command command)
             return usage("--hs-horizon", "expected 'sqrt' or 'overlapping', found \"" + *o.hsHorizon + "\"");
         a.historicalHorizon = *v;
     }
+    if (o.scaling) {
+        const auto v = parseMultiDayScaling(*o.scaling);
+        if (!v)
+            return usage("--scaling", "expected 'sqrt' or 'aggregate', found \"" + *o.scaling + "\"");
+        a.scaling = *v;
+    }
     if (o.simulations) {
         const auto v = toWhole<int>(*o.simulations);
         if (!v)
@@ -333,6 +345,8 @@ Status checkModelParameters(const ModelOptions &o, const Assumptions &a, Command
         return usage("--dof", "applies to --model student-t or monte-carlo, not " + model);
     if (o.hsHorizon && a.model != RiskModel::Historical)
         return usage("--hs-horizon", "applies to --model historical, not " + model);
+    if (o.scaling && a.model != RiskModel::StudentT && a.model != RiskModel::CornishFisher)
+        return usage("--scaling", "applies to --model student-t or cornish-fisher, not " + model);
     if (o.simulations && a.model != RiskModel::MonteCarlo)
         return usage("--simulations", "applies to --model monte-carlo, not " + model);
     if (o.seed && a.model != RiskModel::MonteCarlo)

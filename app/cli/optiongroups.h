@@ -50,7 +50,7 @@ Status applyAssumptionOptions(const AssumptionOptions &options, Assumptions &a);
 
 // ---- Model: --model and its parameters ----------------------------------------------------------
 struct ModelOptions {
-    std::optional<std::string> model, dof, hsHorizon, simulations, seed;
+    std::optional<std::string> model, dof, hsHorizon, scaling, simulations, seed;
 };
 void declareModelOptions(CommandLine &line, ModelOptions &options, Command command);
 Status applyModelOptions(const ModelOptions &options, Assumptions &a, Command command);

@@ -148,8 +148,9 @@ Result<RiskGrid> monteCarloGrid(const RiskReport &r, std::vector<int> horizons, 
 } // namespace
 
 Result<RiskGrid> modelRiskGrid(const RiskReport &r, std::vector<int> horizons, std::vector<double> confidences,
-                               MultiDayScaling scaling, const RunControl &control)
+                               const RunControl &control)
 {
+    const MultiDayScaling scaling = r.assumptions.scaling;
     const bool aggregate = scaling == MultiDayScaling::Aggregate;
     switch (r.model.used) {
     case RiskModel::Normal:

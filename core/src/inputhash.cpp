@@ -73,6 +73,10 @@ std::string canonicalAssumptionsText(const Assumptions &a)
     out += "model=" + std::string(toName(a.model)) + "\n";
     out += "dof=" + dofText(a.dof) + "\n";
     out += "historical_horizon=" + std::string(toName(a.historicalHorizon)) + "\n";
+    // Written only when not the default, so that the text (and the hash) of every input made
+    // before the choice existed stays as it was.
+    if (a.scaling != MultiDayScaling::SquareRoot)
+        out += "scaling=" + std::string(toName(a.scaling)) + "\n";
     out += "simulations=" + std::to_string(a.simulations) + "\n";
     out += "seed=" + std::to_string(a.seed) + "\n";
     return out;

@@ -47,7 +47,7 @@ std::optional<std::vector<double>> modelPnlDensity(const RiskReport &report, std
             out.push_back(boost::math::pdf(standard, (x - mu) / sigma) / sigma);
         break;
     case RiskModel::StudentT: {
-        const double nu = *m.dof;
+        const double nu = m.horizonDof.value_or(*m.dof);
         const double scale = studentTScale(nu) * sigma;
         const boost::math::students_t t(nu);
         for (double x : points)
@@ -57,9 +57,10 @@ std::optional<std::vector<double>> modelPnlDensity(const RiskReport &report, std
     case RiskModel::CornishFisher: {
         if (!m.cornishFisherMonotone.value_or(false))
             return std::nullopt;
+        const Shape shape = m.horizonShape.value_or(*m.shape);
         for (double x : points) {
-            const double z = invertCornishFisher((x - mu) / sigma, *m.shape);
-            out.push_back(boost::math::pdf(standard, z) / (sigma * cornishFisherSlope(z, *m.shape)));
+            const double z = invertCornishFisher((x - mu) / sigma, shape);
+            out.push_back(boost::math::pdf(standard, z) / (sigma * cornishFisherSlope(z, shape)));
         }
         break;
     }

@@ -13,6 +13,7 @@
 
 #include <chrono>
 #include <cmath>
+#include <cstdio>
 #include <span>
 #include <string_view>
 #include <unordered_map>
@@ -177,9 +178,8 @@ AllocationInputs allocationInputs(const RiskReport &report)
     return in;
 }
 
-// The multi-day convention of the Student-t and Cornish–Fisher figures (multidayscaling.h). The
-// assumptions offer square-root scaling only; the aggregate path is the allocation's and the grid's.
-MultiDayScaling scalingOf(const Assumptions &) { return MultiDayScaling::SquareRoot; }
+// The multi-day convention of the Student-t and Cornish–Fisher figures (multidayscaling.h).
+MultiDayScaling scalingOf(const Assumptions &a) { return a.scaling; }
 
 // ν for the horizon under the scaling convention (multidayscaling.h), with a warning when it
 // cannot be aggregated.
@@ -188,10 +188,14 @@ double horizonDof(RiskReport &report, double nu)
     const auto &a = report.assumptions;
     if (scalingOf(a) != MultiDayScaling::Aggregate || a.horizonDays == 1)
         return nu;
-    if (!(nu > 4.0))
-        report.warnings.push_back("the Student-t with " + std::to_string(nu)
-                                  + " degrees of freedom has no finite kurtosis (ν ≤ 4), so the " + std::to_string(a.horizonDays)
-                                  + "-day sum's ν cannot be found from it: ν is kept unchanged");
+    if (!(nu > 4.0)) {
+        char shown[32];
+        std::snprintf(shown, sizeof shown, "%.6g", nu);
+        report.warnings.push_back(std::string("the Student-t with ") + shown
+                                  + " degrees of freedom (4 or fewer) has no finite kurtosis, so the "
+                                  + std::to_string(a.horizonDays) + "-day sum's degrees of freedom cannot be found from it: "
+                                  "aggregate scaling keeps " + shown + ", as for one day");
+    }
     return aggregateDof(nu, a.horizonDays);
 }
 
@@ -221,6 +225,7 @@ Status applyModel(RiskReport &report, const RunControl &control)
         report.model.used = RiskModel::StudentT;
         report.model.dof = nu;
         const double nuH = horizonDof(report, *nu);
+        report.model.horizonDof = nuH;
         report.figures = studentTVarEs(report.horizon, nuH, a.confidence);
         Allocation c = ellipticalAllocation(e, in.sigmaE, in.sigmaP, in.sd, mean, a.horizonDays,
                                             studentTVarFactor(nuH, a.confidence), studentTEsFactor(nuH, a.confidence));
@@ -236,6 +241,7 @@ Status applyModel(RiskReport &report, const RunControl &control)
         report.model.used = RiskModel::CornishFisher;
         report.model.shape = shape;
         const Shape used = scaledShape(*shape, a.horizonDays, scalingOf(a));
+        report.model.horizonShape = used;
         const CornishFisherFactors f = cornishFisherFactors(a.confidence, used);
         report.model.cornishFisherMonotone = f.monotone;
         report.figures = VarEs{f.var * report.horizon.sd - report.horizon.mean, f.es * report.horizon.sd - report.horizon.mean};

@@ -83,36 +83,6 @@ double sumOf(const RiskReport &r, double HoldingRisk::*field)
     return s;
 }
 
-// The report's figures and allocation redone under aggregate multi-day scaling
-// (multidayscaling.h) from the same inputs, through allocation.h's functions.
-RiskReport withAggregateScaling(RiskReport r)
-{
-    const auto &a = r.assumptions;
-    const Eigen::VectorXd sigmaE = r.moments.covariance * r.exposures;
-    const Eigen::VectorXd sd = r.moments.covariance.diagonal().cwiseSqrt();
-    Allocation c;
-    if (r.model.used == RiskModel::StudentT) {
-        const double nu = aggregateDof(*r.model.dof, a.horizonDays);
-        c = ellipticalAllocation(r.exposures, sigmaE, r.oneDay.sd, sd, r.moments.mean, a.horizonDays,
-                                 studentTVarFactor(nu, a.confidence), studentTEsFactor(nu, a.confidence));
-    } else {
-        c = cornishFisherAllocation(r.exposures, sigmaE, r.oneDay.sd, sd, r.moments.mean, r.windowReturnsMatrix,
-                                    a.horizonDays, a.confidence, MultiDayScaling::Aggregate);
-    }
-    r.figures = c.total;
-    r.undiversifiedVar = c.undiversifiedVar;
-    r.diversificationBenefit = c.diversificationBenefit;
-    for (std::size_t i = 0; i < r.holdings.size(); ++i) {
-        const auto k = static_cast<Eigen::Index>(i);
-        r.holdings[i].componentVar = c.componentVar(k);
-        r.holdings[i].componentEs = c.componentEs(k);
-        r.holdings[i].standaloneVar = c.standaloneVar(k);
-        r.holdings[i].standaloneEs = c.standaloneEs(k);
-        r.holdings[i].marginalVar = c.marginalVar(k);
-    }
-    return r;
-}
-
 } // namespace
 
 class TestAllocation : public QObject {
@@ -195,14 +165,13 @@ private slots:
             a.confidence = c.value("confidence").toDouble();
             a.mean = c.value("mean").toString() == "sample" ? MeanModel::Sample : MeanModel::Zero;
             const bool aggregate = c.value("scaling").toString() == "aggregate";
+            a.scaling = aggregate ? MultiDayScaling::Aggregate : MultiDayScaling::SquareRoot;
             if (c.contains("hs_horizon"))
                 a.historicalHorizon = *parseHistoricalHorizon(c.value("hs_horizon").toString().toStdString());
             std::vector<double> book;
             for (const QJsonValue &x : c.value("exposures").toArray())
                 book.push_back(x.toDouble());
-            RiskReport r = run(book, a);
-            if (aggregate)
-                r = withAggregateScaling(r);
+            const RiskReport r = run(book, a);
             const QString name = QStringLiteral("%1 %2 %3 H=%4 C=%5 %6")
                                      .arg(model, c.value("portfolio").toString(), c.value("mean").toString())
                                      .arg(a.horizonDays)
@@ -214,8 +183,7 @@ private slots:
             TW_CLOSE_REL_CTX(r.figures.var, c.value("var").toDouble(), rel, name);
             TW_CLOSE_REL_CTX(r.figures.es, c.value("es").toDouble(), rel, name);
             if (c.contains("horizon_dof"))
-                TW_CLOSE_REL_CTX(aggregate ? aggregateDof(*r.model.dof, a.horizonDays) : *r.model.dof,
-                                 c.value("horizon_dof").toDouble(), 1e-9, name);
+                TW_CLOSE_REL_CTX(*r.model.horizonDof, c.value("horizon_dof").toDouble(), 1e-9, name);
             const auto check = [&](const char *key, double HoldingRisk::*field, double scale) {
                 const QJsonArray expected = c.value(key).toArray();
                 for (int i = 0; i < expected.size(); ++i)
@@ -338,8 +306,9 @@ private slots:
             Assumptions a = baseAssumptions(m);
             a.horizonDays = 10;
             a.mean = MeanModel::Sample;
-            const RiskReport r = withAggregateScaling(run(longShortBook, a));
-            auto grid = modelRiskGrid(r, {1, 10}, {0.95, 0.99}, MultiDayScaling::Aggregate);
+            a.scaling = MultiDayScaling::Aggregate;
+            const RiskReport r = run(longShortBook, a);
+            auto grid = modelRiskGrid(r, {1, 10}, {0.95, 0.99});
             QVERIFY(grid.ok());
             TW_CLOSE_REL(grid.value().varAt(1, 1), r.figures.var, 1e-12);
             TW_CLOSE_REL(grid.value().esAt(1, 1), r.figures.es, 1e-12);
@@ -348,7 +317,61 @@ private slots:
             for (const auto &h : r.holdings)
                 sum += h.componentVar;
             TW_CLOSE_REL(sum, r.figures.var, 1e-9);
+            // The grid's one-day row under aggregate scaling is the one-day model (H = 1: S/√1, K/1).
+            a.horizonDays = 1;
+            const RiskReport one = run(longShortBook, a);
+            QCOMPARE(grid.value().varAt(0, 1), one.figures.var);
         }
+    }
+
+    // At one day the two conventions are the same model (S/√1 = S, K/1 = K, ν_1 = ν): every figure
+    // is identical to the bit (multidayscaling.h).
+    void oneDayIsTheSameUnderBothScalings()
+    {
+        for (RiskModel m : {RiskModel::StudentT, RiskModel::CornishFisher})
+            for (const auto *book : {&longBook, &longShortBook}) {
+                Assumptions a = baseAssumptions(m);
+                a.mean = MeanModel::Sample;
+                const RiskReport root = run(*book, a);
+                a.scaling = MultiDayScaling::Aggregate;
+                const RiskReport sum = run(*book, a);
+                QCOMPARE(sum.figures.var, root.figures.var);
+                QCOMPARE(sum.figures.es, root.figures.es);
+                QCOMPARE(sum.undiversifiedVar, root.undiversifiedVar);
+                for (std::size_t i = 0; i < root.holdings.size(); ++i) {
+                    QCOMPARE(sum.holdings[i].componentVar, root.holdings[i].componentVar);
+                    QCOMPARE(sum.holdings[i].componentEs, root.holdings[i].componentEs);
+                    QCOMPARE(sum.holdings[i].standaloneVar, root.holdings[i].standaloneVar);
+                }
+                QCOMPARE(sum.warnings, root.warnings);
+            }
+    }
+
+    // Student-t with ν ≤ 4 has no finite kurtosis to divide by H: aggregate scaling keeps ν (the
+    // figures are those of square-root scaling) and says so in a warning.
+    void aggregateKeepsDofOfFourOrLess()
+    {
+        Assumptions a = baseAssumptions(RiskModel::StudentT);
+        a.dof = DegreesOfFreedom::given(3.5);
+        a.horizonDays = 10;
+        const RiskReport root = run(longBook, a);
+        a.scaling = MultiDayScaling::Aggregate;
+        const RiskReport sum = run(longBook, a);
+        QCOMPARE(*sum.model.horizonDof, 3.5);
+        QCOMPARE(sum.figures.var, root.figures.var);
+        QCOMPARE(sum.figures.es, root.figures.es);
+        bool said = false;
+        for (const auto &w : sum.warnings)
+            said = said || w.find("aggregate scaling keeps 3.5") != std::string::npos;
+        QVERIFY(said);
+        for (const auto &w : root.warnings)
+            QVERIFY(w.find("aggregate scaling") == std::string::npos);
+        // Above 4 the H-day ν is 4 + H(ν − 4): ν = 6, H = 10 gives 24, with no such warning.
+        a.dof = DegreesOfFreedom::given(6.0);
+        const RiskReport six = run(longBook, a);
+        QCOMPARE(*six.model.horizonDof, 24.0);
+        for (const auto &w : six.warnings)
+            QVERIFY(w.find("aggregate scaling") == std::string::npos);
     }
 };
 

@@ -73,6 +73,7 @@ WorkbookContents sampleContents()
     a.model = RiskModel::StudentT;
     a.dof = DegreesOfFreedom::given(5.0 / 3.0 + 3.0);
     a.historicalHorizon = HistoricalHorizon::Overlapping;
+    a.scaling = MultiDayScaling::Aggregate;
     a.simulations = 12345;
     a.seed = std::numeric_limits<std::uint64_t>::max() - 2; // beyond what a JSON number holds
     return c;
@@ -131,6 +132,7 @@ void compareContents(const WorkbookContents &got, const WorkbookContents &want)
     QCOMPARE(ga.dof.kind, wa.dof.kind);
     QCOMPARE(bits(ga.dof.value), bits(wa.dof.value));
     QCOMPARE(ga.historicalHorizon, wa.historicalHorizon);
+    QCOMPARE(ga.scaling, wa.scaling);
     QCOMPARE(ga.simulations, wa.simulations);
     QCOMPARE(ga.seed, wa.seed);
 }
@@ -180,7 +182,7 @@ void TestWorkbookFile::assumptionsHaveTheFieldsTheFileStores()
     // the new field one line in assumptionsJson() and one in readAssumptions() (workbookfile.cpp),
     // a line in compareContents() and sampleContents() here, then update this size.
 #if defined(__x86_64__) || defined(__aarch64__)
-    QCOMPARE(sizeof(Assumptions), std::size_t(80));
+    QCOMPARE(sizeof(Assumptions), std::size_t(88));
 #else
     QSKIP("the size tripwire is set for 64-bit Linux");
 #endif
@@ -203,7 +205,11 @@ void TestWorkbookFile::saveLoadRoundTripsEveryInput()
     switch (variant) {
     case 1: a = Assumptions{}; break;
     case 2: a.dof = DegreesOfFreedom::fit(); a.model = RiskModel::MonteCarlo; a.seed = 0; a.window.reset(); break;
-    case 3: a.model = RiskModel::CornishFisher; a.historicalHorizon = HistoricalHorizon::SquareRoot; break;
+    case 3:
+        a.model = RiskModel::CornishFisher;
+        a.historicalHorizon = HistoricalHorizon::SquareRoot;
+        a.scaling = MultiDayScaling::SquareRoot;
+        break;
     default: break;
     }
     QTemporaryDir dir;
@@ -280,7 +286,7 @@ void TestWorkbookFile::olderFileOpensWithDefaults()
     const std::string &note = back.value().warnings.front();
     TW_MESSAGE_HAS(note, QStringLiteral("old.tailwise: the file does not give these assumptions, so their defaults apply"));
     for (const char *part : {"days-per-year 252", "window all", "returns simple", "estimator sample", "lambda 0.94",
-                             "mean zero", "model normal", "dof unset", "historical-horizon sqrt",
+                             "mean zero", "model normal", "dof unset", "historical-horizon sqrt", "scaling sqrt",
                              "simulations 100000", "seed 1"})
         TW_MESSAGE_HAS(note, QLatin1String(part));
     QVERIFY(!contains(note, QStringLiteral("confidence")));
@@ -297,6 +303,18 @@ void TestWorkbookFile::olderFileOpensWithDefaults()
     QCOMPARE(one.value().warnings.size(), std::size_t(1));
     TW_MESSAGE_HAS(one.value().warnings.front(), QStringLiteral("defaults apply: seed 1"));
     QVERIFY(parseWorkbookJson(toBytes(asObject(sampleContents())), QStringLiteral("x")).value().warnings.empty());
+
+    // A file from before the multi-day scaling was a choice: square-root scaling, as then, said.
+    QJsonObject before = asObject(sampleContents());
+    QJsonObject ba = before[QStringLiteral("assumptions")].toObject();
+    QCOMPARE(ba.value(QStringLiteral("scaling")).toString(), QStringLiteral("aggregate"));
+    ba.remove(QStringLiteral("scaling"));
+    before[QStringLiteral("assumptions")] = ba;
+    const auto rooted = parseWorkbookJson(toBytes(before), QStringLiteral("before.tailwise"));
+    QVERIFY(rooted.ok());
+    QCOMPARE(rooted.value().assumptions.scaling, MultiDayScaling::SquareRoot);
+    QCOMPARE(rooted.value().warnings.size(), std::size_t(1));
+    TW_MESSAGE_HAS(rooted.value().warnings.front(), QStringLiteral("defaults apply: scaling sqrt"));
 }
 
 // A workbook made where the decimal separator is a comma, opened where it is a point (and the
@@ -528,6 +546,12 @@ void TestWorkbookFile::refusesBadFiles_data()
     QTest::newRow("dof at 2")
         << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a["dof"] = 2; }); }) << A
         << QStringList{"assumptions.dof: expected degrees of freedom greater than 2"};
+    QTest::newRow("scaling unknown")
+        << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a["scaling"] = "cube-root"; }); })
+        << V << QStringList{"assumptions.scaling: expected \"sqrt\" or \"aggregate\", found \"cube-root\""};
+    QTest::newRow("scaling not text")
+        << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a["scaling"] = 2; }); }) << F
+        << QStringList{"assumptions.scaling: expected \"sqrt\" or \"aggregate\""};
     QTest::newRow("seed negative")
         << edit([&](QJsonObject &o) { inObject(o, "assumptions", [](QJsonObject &a) { a["seed"] = "-1"; }); }) << V
         << QStringList{"assumptions.seed: expected a whole number"};

@@ -280,6 +280,7 @@ QJsonObject assumptionsJson(const Assumptions &a)
     o["model"] = nameJson(toName(a.model));
     o["dof"] = dofJson(a.dof);
     o["historical-horizon"] = nameJson(toName(a.historicalHorizon));
+    o["scaling"] = nameJson(toName(a.scaling));
     o["simulations"] = a.simulations;
     o["seed"] = QString::number(a.seed);
     return o;
@@ -321,6 +322,8 @@ void readAssumptions(const QJsonObject &o, Context &c, Assumptions &a, Warnings 
         r.degreesOfFreedom("dof", a.dof);
     if (present("historical-horizon"))
         r.choice("historical-horizon", a.historicalHorizon, parseHistoricalHorizon, "\"sqrt\" or \"overlapping\"");
+    if (present("scaling"))
+        r.choice("scaling", a.scaling, parseMultiDayScaling, "\"sqrt\" or \"aggregate\"");
     if (present("simulations"))
         r.whole("simulations", a.simulations);
     if (present("seed"))

@@ -4,6 +4,7 @@
 // names the assumption (the CLI maps that name to its option, the window to its field).
 #pragma once
 
+#include "tailwise/multidayscaling.h"
 #include "tailwise/result.h"
 
 #include <cstdint>
@@ -47,6 +48,7 @@ struct Assumptions {
     RiskModel model = RiskModel::Normal;
     DegreesOfFreedom dof;                                      // student-t, monte-carlo
     HistoricalHorizon historicalHorizon = HistoricalHorizon::SquareRoot; // historical
+    MultiDayScaling scaling = MultiDayScaling::SquareRoot;     // student-t, cornish-fisher: H-day shape (multidayscaling.h)
     int simulations = 100000;                                  // monte-carlo draws, 1000 … 10,000,000
     std::uint64_t seed = 1;                                    // monte-carlo: same seed → same figures
 };

@@ -6,6 +6,8 @@
 //   cornish-fisher  x = μ_h + σ_h z_cf(z) with z ~ N(0,1) (cornishfisher.h), so by the change of
 //                   variable f(x) = φ(z)/(σ_h z_cf′(z)) at the z solving z_cf(z) = u (found by
 //                   bisection, z_cf being increasing when monotone)
+// ν and the shape are those the horizon figure used (ModelDetails::horizonDof, horizonShape: the
+// H-day sum's under aggregate multi-day scaling, multidayscaling.h), so VaR is the density's quantile.
 // Historical and Monte Carlo have no closed density (their own samples are the picture), and a
 // non-monotone Cornish–Fisher expansion has none either: nullopt. Also nullopt when σ_h = 0 (all
 // mass at one point) or when a value would not be finite.

@@ -3,8 +3,10 @@
 // report's own horizon and confidence is its headline:
 //   normal          normalRiskGrid (grid.h): z(C) √H σ_1 − H μ_1
 //   student-t       k_V(ν_H, C) √H σ_1 − H μ_1 (studentt.h; ν_H = ν under square-root scaling, or
-//                   4 + H(ν − 4) under aggregate scaling, multidayscaling.h)
-//   cornish-fisher  f_V(S_H, K_H, C) √H σ_1 − H μ_1 (cornishfisher.h; S_H = S, K_H = K, or S/√H, K/H)
+//                   4 + H(ν − 4) under aggregate scaling, multidayscaling.h; the report's
+//                   Assumptions::scaling says which)
+//   cornish-fisher  f_V(S_H, K_H, C) √H σ_1 − H μ_1 (cornishfisher.h; S_H = S, K_H = K, or S/√H, K/H
+//                   under aggregate scaling)
 //   historical      the window's scenarios at every confidence (allocation.h's
 //                   historicalScenarioPnl): √H times the one-day quantile and tail mean, or the
 //                   overlapping H-day sums (horizons with fewer than 2 sums are an error)
@@ -27,6 +29,6 @@ namespace tailwise {
 
 // Errors: Cancelled (monte-carlo); InsufficientData naming "horizon" (historical, overlapping).
 Result<RiskGrid> modelRiskGrid(const RiskReport &report, std::vector<int> horizons, std::vector<double> confidences,
-                               MultiDayScaling scaling = MultiDayScaling::SquareRoot, const RunControl &control = {});
+                               const RunControl &control = {});
 
 } // namespace tailwise

@@ -57,6 +57,11 @@ struct ModelDetails {
     bool dofFitted = false;                      // ν came from the moment fit
     std::optional<Shape> shape;                  // S, K of the daily P&L (cornish-fisher, t fit)
     std::optional<bool> cornishFisherMonotone;
+    // What the horizon figure used under the multi-day scaling (Assumptions::scaling,
+    // multidayscaling.h): ν, or ν_H = 4 + H(ν − 4) under aggregate scaling (student-t); S and K,
+    // or S/√H and K/H under aggregate scaling (cornish-fisher).
+    std::optional<double> horizonDof;
+    std::optional<Shape> horizonShape;
     std::optional<double> varStandardError;      // monte-carlo, money
     std::optional<double> esStandardError;       // monte-carlo, money
     std::string standardErrorMethod;
