@@ -47,8 +47,13 @@ std::vector<double> gridConfidences(const RiskReport &r)
 
 std::string gridText(const RiskReport &r, const RiskGrid &g)
 {
+    const bool scaled = r.model.used == RiskModel::StudentT || r.model.used == RiskModel::CornishFisher;
     std::string out = "\nVaR by horizon and confidence, every cell under the " + std::string(toName(r.model.used))
-                      + " model (the headline's cell is marked *)\n";
+                      + " model"
+                      + (!scaled ? ""
+                         : r.assumptions.scaling == MultiDayScaling::Aggregate ? " applied to each horizon's sum of days"
+                                                                               : " scaled by the square root of the horizon")
+                      + " (the headline's cell is marked *)\n";
     out += pad("horizon", 10);
     for (double c : g.confidences)
         out += pad(confidenceLabel(c), 18);
@@ -68,6 +73,8 @@ void writeGridJson(JsonWriter &j, const RiskReport &r, const RiskGrid &g)
 {
     j.key("grid").beginObject();
     j.key("model").value(toName(r.model.used));
+    if (r.model.used == RiskModel::StudentT || r.model.used == RiskModel::CornishFisher)
+        j.key("scaling").value(toName(r.assumptions.scaling));
     j.key("horizons_days").beginArray();
     for (int h : g.horizons)
         j.value(h);

@@ -132,6 +132,13 @@ private slots:
         other = a;
         other.seed = 2;
         QVERIFY(inputSha256(prices, euHoldings(), other) != base);
+        // The multi-day scaling: aggregate changes the hash; the default writes nothing, so the
+        // text (and hash) of inputs made before the choice existed stay as they were.
+        other = a;
+        other.scaling = MultiDayScaling::Aggregate;
+        QVERIFY(inputSha256(prices, euHoldings(), other) != base);
+        QVERIFY(canonicalAssumptionsText(other).find("scaling=aggregate\n") != std::string::npos);
+        QVERIFY(canonicalAssumptionsText(a).find("scaling") == std::string::npos);
     }
 
     void asOfEqualsAHistoryCutAtThatDate()

@@ -72,6 +72,7 @@ private slots:
     void longTablesRunOverPagesWithTheirHeader();
     void refusesAnUnwritablePath();
     void reportWithoutFiguresStillHasAssumptionsAndCautions();
+    void reportStatesTheMultiDayScaling();
     void windowExportsTheReportFromTheFileMenu();
 };
 
@@ -210,6 +211,45 @@ void TestReport::reportWithoutFiguresStillHasAssumptionsAndCautions()
     QVERIFY2(words.contains(QStringLiteral("there is no price history yet")), qPrintable(words));
     QVERIFY2(words.contains(QStringLiteral("Assumptions")), qPrintable(words));
     QVERIFY2(words.contains(QStringLiteral("VaR is not the worst case")), qPrintable(words));
+}
+
+// The multi-day scaling in words (multidayscaling.h), with what it used at the workbook's horizon
+// (core's figures for the same inputs), in the headline section and the assumptions table.
+void TestReport::reportStatesTheMultiDayScaling()
+{
+    auto loaded = loadWorkbook(samplePath());
+    QVERIFY(loaded.ok());
+    WorkbookContents contents = loaded.value();
+    contents.assumptions.model = RiskModel::StudentT;
+    for (MultiDayScaling scaling : {MultiDayScaling::SquareRoot, MultiDayScaling::Aggregate}) {
+        contents.assumptions.scaling = scaling;
+        report::ReportInputs in;
+        in.contents = &contents;
+        in.workbookName = QStringLiteral("larchmere.tailwise");
+        in.date = QDate(2026, 12, 1);
+        in.report = computeRisk(contents.prices, contents.holdings, contents.assumptions);
+        QVERIFY(in.report.ok());
+        const RiskReport &r = in.report.value();
+        const QString words = report::buildReport(in).plainText();
+        QVERIFY2(words.contains(QStringLiteral("Longer horizons")), qPrintable(words));
+        if (scaling == MultiDayScaling::SquareRoot) {
+            QVERIFY2(words.contains(QStringLiteral("Scale one day by √H")), qPrintable(words));
+            QVERIFY2(words.contains(QStringLiteral("One-day figure × √10, with one day's tails.")), qPrintable(words));
+        } else {
+            QVERIFY2(words.contains(QStringLiteral("Apply the model to the H-day sum")), qPrintable(words));
+            const QString used = QStringLiteral("Model applied to the 10-day sum: ν = %1 there (%2 for one day).")
+                                     .arg(QLocale().toString(*r.model.horizonDof, 'f', 2),
+                                          QLocale().toString(*r.model.dof, 'f', 2));
+            QVERIFY2(words.contains(used), qPrintable(used + QStringLiteral("\n") + words));
+        }
+    }
+    // Not for the normal model, which has no such choice.
+    contents.assumptions.model = RiskModel::Normal;
+    report::ReportInputs in;
+    in.contents = &contents;
+    in.date = QDate(2026, 12, 1);
+    in.report = computeRisk(contents.prices, contents.holdings, contents.assumptions);
+    QVERIFY(!report::buildReport(in).plainText().contains(QStringLiteral("Longer horizons")));
 }
 
 void TestReport::windowExportsTheReportFromTheFileMenu()

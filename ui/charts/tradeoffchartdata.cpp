@@ -1,6 +1,7 @@
 #include "charts/tradeoffchartdata.h"
 
 #include "charts/chartstyle.h"
+#include "text/assumptionlabels.h"
 
 #include "tailwise/modelgrid.h"
 
@@ -74,6 +75,8 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
     const RiskModel model = report.model.used;
     // Which model every cell follows, then anything else to say.
     d.note = tr("Every figure here is under the %1 model, as the headline.").arg(modelWords(model));
+    if (modelHasScaling(model))
+        d.note += QLatin1Char(' ') + scalingNote(a.scaling);
     if (oneDay.sd == 0.0)
         d.note += QLatin1Char(' ')
                 + tr("The P&L has no spread over this window: VaR is the expected loss alone at every confidence.");

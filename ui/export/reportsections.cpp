@@ -126,6 +126,8 @@ void addHeadline(Document &doc, const RiskReport &r)
     doc.add(figures);
     doc.add(TextStyle::Body, headlineSentence(r));
     doc.add(TextStyle::Body, tr("Model: %1. %2").arg(modelDetail(r), modelDescription(r.model.used)));
+    if (const QString scaling = scalingSentence(r); !scaling.isEmpty())
+        doc.add(TextStyle::Body, tr("Longer horizons: %1").arg(scaling));
     if (r.model.varStandardError && std::isfinite(*r.model.varStandardError))
         doc.add(TextStyle::Body, tr("The simulation's standard error is %1 on VaR and %2 on ES: a second run with "
                                     "another seed would differ by about that much.")
@@ -417,6 +419,12 @@ void addAssumptions(Document &doc, const WorkbookContents &w, const RiskReport *
     default: break;
     }
     t.rows.push_back({tr("Model"), model});
+    if (modelHasScaling(a.model)) {
+        QString scaling = scalingLabel(a.scaling);
+        if (r && modelHasScaling(r->model.used))
+            scaling += QStringLiteral(". ") + scalingSentence(*r);
+        t.rows.push_back({tr("Longer horizons"), scaling});
+    }
     t.rows.push_back({tr("Confidence"), confidence(a.confidence)});
     t.rows.push_back({tr("Horizon"), tradingDaysText(a.horizonDays)});
     t.rows.push_back({tr("Days a year"), locale.toString(a.daysPerYear)});

@@ -190,8 +190,10 @@ void ChartTabs::refreshLossTail()
         for (const RiskReport &r : store.overlays()) {
             if (r.model.used == report->assumptions.model)
                 continue;
+            // ν of the horizon figure: the H-day sum's under aggregate multi-day scaling.
             const QString name = r.model.used == RiskModel::StudentT
-                                     ? tr("Student-t (ν = %1)").arg(QLocale().toString(r.model.dof.value_or(0.0), 'f', 1))
+                                     ? tr("Student-t (ν = %1)").arg(QLocale().toString(
+                                           r.model.horizonDof.value_or(r.model.dof.value_or(0.0)), 'f', 1))
                                      : tr("Cornish–Fisher");
             options.overlays.emplace_back(tr("%1 model: VaR %2").arg(name, moneyText(r.figures.var, 0)), &r);
         }

@@ -3,6 +3,7 @@
 #include "document/commands.h"
 #include "document/resultsstore.h"
 #include "document/workbook.h"
+#include "text/assumptionlabels.h"
 #include "text/numbers.h"
 
 #include "tailwise/assumptions.h"
@@ -60,6 +61,16 @@ ModelSettings::ModelSettings(Workbook &workbook, QWidget *parent) : QWidget(pare
                                        "observations than they seem)."));
     m_form->addRow(tr("Horizon by"), m_historicalHorizon);
 
+    m_scaling = new QComboBox(this);
+    m_scaling->setObjectName(QStringLiteral("scaling"));
+    m_scaling->addItem(scalingLabel(MultiDayScaling::SquareRoot), int(MultiDayScaling::SquareRoot));
+    m_scaling->addItem(scalingLabel(MultiDayScaling::Aggregate), int(MultiDayScaling::Aggregate));
+    m_scaling->setToolTip(tr("How a horizon of H days is reached. √H: the one-day figure times √H, keeping one "
+                             "day's fat tails (a common regulatory convention). H-day sum: the model is applied "
+                             "to the sum of H independent days, whose tails are thinner (skewness S/√H, excess "
+                             "kurtosis K/H; for Student-t, ν = 4 + H(ν − 4), kept when ν is 4 or less)."));
+    m_form->addRow(tr("Longer horizons"), m_scaling);
+
     m_simulations = new QSpinBox(this);
     m_simulations->setObjectName(QStringLiteral("simulations"));
     m_simulations->setRange(1000, 10000000);
@@ -88,6 +99,13 @@ ModelSettings::ModelSettings(Workbook &workbook, QWidget *parent) : QWidget(pare
         if (a.historicalHorizon == m_workbook.assumptions().historicalHorizon)
             return;
         edit::setAssumptions(m_workbook, a, tr("Set historical horizon to %1").arg(m_historicalHorizon->currentText()));
+    });
+    connect(m_scaling, &QComboBox::currentIndexChanged, this, [this](int) {
+        Assumptions a = m_workbook.assumptions();
+        a.scaling = MultiDayScaling(m_scaling->currentData().toInt());
+        if (a.scaling == m_workbook.assumptions().scaling)
+            return;
+        edit::setAssumptions(m_workbook, a, tr("Set longer horizons to “%1”").arg(m_scaling->currentText()));
     });
     connect(m_simulations, &QSpinBox::valueChanged, this, [this](int n) {
         Assumptions a = m_workbook.assumptions();
@@ -146,7 +164,8 @@ void ModelSettings::commitSeed()
 void ModelSettings::refresh()
 {
     const Assumptions &a = m_workbook.assumptions();
-    const QSignalBlocker b1(m_dofKind), b2(m_dof), b3(m_historicalHorizon), b4(m_simulations), b5(m_seed);
+    const QSignalBlocker b1(m_dofKind), b2(m_dof), b3(m_historicalHorizon), b4(m_simulations), b5(m_seed),
+        b6(m_scaling);
     const bool t = a.model == RiskModel::StudentT;
     const bool mc = a.model == RiskModel::MonteCarlo;
     const bool hs = a.model == RiskModel::Historical;
@@ -165,6 +184,7 @@ void ModelSettings::refresh()
     if (a.dof.kind == DegreesOfFreedom::Kind::Given && m_dof->value() != a.dof.value)
         m_dof->setValue(a.dof.value);
     m_historicalHorizon->setCurrentIndex(std::max(0, m_historicalHorizon->findData(int(a.historicalHorizon))));
+    m_scaling->setCurrentIndex(std::max(0, m_scaling->findData(int(a.scaling))));
     if (m_simulations->value() != a.simulations)
         m_simulations->setValue(a.simulations);
     if (!m_seed->hasFocus())
@@ -173,6 +193,7 @@ void ModelSettings::refresh()
     showRow(m_dofKind, t || mc);
     showRow(m_dof, (t || mc) && choice == DofGiven);
     showRow(m_historicalHorizon, hs);
+    showRow(m_scaling, modelHasScaling(a.model));
     showRow(m_simulations, mc);
     showRow(m_seed, mc);
 
@@ -189,6 +210,9 @@ void ModelSettings::refresh()
                        .arg(QLocale().toString(m.shape->skewness, 'f', 2), QLocale().toString(m.shape->excessKurtosis, 'f', 2));
         else if (m.scenarios > 0 && hs)
             note = tr("Quantile taken over %1 P&L.").arg(QLocale().toString(m.scenarios));
+        // The multi-day convention in words, with what it used at this horizon.
+        if (const QString scaling = scalingSentence(*report); !scaling.isEmpty())
+            note += (note.isEmpty() ? QString() : QStringLiteral(" ")) + scaling;
     }
     m_note->setText(note);
     m_note->setVisible(!note.isEmpty());

@@ -9,7 +9,9 @@
 //   - holdings: one line per holding in byte order of the asset name: asset, quantity, price
 //     override and value ("-" when absent), in the same number form;
 //   - assumptions: every field of Assumptions as "name=value", in a fixed order, so that a
-//     changed confidence, horizon, model or seed changes the digest.
+//     changed confidence, horizon, model or seed changes the digest. A field added later with
+//     a default is written only when it differs from that default ("scaling=aggregate"), so that
+//     the digest of inputs made before it existed stays as it was.
 // The prices hashed are the ones the figure used: after an as-of cut (asof.h) only the rows up to
 // that date. Any changed price, holding or assumption changes the digest.
 #pragma once
