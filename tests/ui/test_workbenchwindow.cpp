@@ -361,6 +361,9 @@ private slots:
         w.resize(1360, 860);
         QVERIFY(w.importPriceHistoryFile(prices).isEmpty());
         QVERIFY(w.holdingsEditor()->importHoldingsFile(holdings).isEmpty());
+        // A title at its limit of 200 characters (a one-line label in the headline) too.
+        const QString longTitle = QString(200, QLatin1Char('T'));
+        edit::setTitle(w.workbook(), longTitle);
         w.results().computeNow(Part::Headline);
         w.show();
         QVERIFY(QTest::qWaitForWindowExposed(&w));
@@ -374,6 +377,10 @@ private slots:
         QCOMPARE(view->textElideMode(), Qt::ElideMiddle);
         const QModelIndex cell = view->model()->index(0, HoldingsModel::AssetColumn);
         QCOMPARE(cell.data(Qt::ToolTipRole).toString(), longName);
+        auto *titleLabel = w.findChild<QLabel *>(QStringLiteral("workbookTitle"));
+        QVERIFY(titleLabel);
+        QVERIFY2(titleLabel->text().size() < longTitle.size() && titleLabel->toolTip() == longTitle,
+                 qPrintable(titleLabel->text()));
         // No wider than the same window holding the sample's short names.
         auto sample = sampleWindow();
         sample->resize(1360, 860);
