@@ -3,6 +3,7 @@
 #include "actions.h"
 #include "document/commands.h"
 #include "document/resultsstore.h"
+#include "document/savefile.h"
 #include "document/recoveryfile.h"
 #include "document/workbook.h"
 #include "document/workbookfile.h"
@@ -11,6 +12,7 @@
 #include "panels/assumptionspane.h"
 #include "panels/cautionsnote.h"
 #include "text/cautions.h"
+#include "text/names.h"
 #include "panels/charttabs.h"
 #include "panels/headlinepanel.h"
 #include "panels/holdingseditor.h"
@@ -212,7 +214,7 @@ void MainWindow::connectActions()
 void MainWindow::updateTitle()
 {
     const QString path = m_workbook->filePath();
-    const QString name = path.isEmpty() ? tr("Untitled") : QFileInfo(path).fileName();
+    const QString name = path.isEmpty() ? tr("Untitled") : shortText(QFileInfo(path).fileName(), shortTitleChars);
     setWindowTitle(tr("%1[*] — Tailwise").arg(name));
     setWindowFilePath(path);
     setWindowModified(m_workbook->isModified());
@@ -255,6 +257,9 @@ QString MainWindow::openWorkbookFile(const QString &path)
 
 QString MainWindow::saveWorkbookFile(const QString &path)
 {
+    // Saving over the workbook's own file is what Save does; over a CSV it was imported from is not.
+    if (const QString refusal = refusalToOverwriteInput(path, m_workbook->importedFiles()); !refusal.isEmpty())
+        return refusal;
     const Status saved = saveWorkbook(m_workbook->contents(), path);
     if (!saved)
         return QString::fromStdString(saved.error().message);
@@ -279,6 +284,7 @@ QString MainWindow::importPriceHistoryFile(const QString &path)
                   "that has them; nothing was changed.")
             .arg(QDir::toNativeSeparators(path), missing.join(QStringLiteral(", ")));
     edit::replacePrices(*m_workbook, prices, tr("Import price history %1").arg(QFileInfo(path).fileName()));
+    m_workbook->noteImportedFrom(path);
     QString done = tr("Imported prices for %1 days from %2").arg(QLocale().toString(prices.dayCount()), QFileInfo(path).fileName());
     if (!prices.warnings.empty())
         done += tr(" — note: %1").arg(QString::fromStdString(prices.warnings.front()));
@@ -396,6 +402,8 @@ void MainWindow::exportReportWithDialog()
 
 void MainWindow::exportReportFile(const QString &path)
 {
+    if (const QString refusal = refusalToOverwriteInput(path, m_workbook->inputFiles()); !refusal.isEmpty())
+        return showProblem(tr("Could not export the report"), refusal);
     const QString file = m_workbook->filePath();
     const QString name = file.isEmpty() ? tr("Untitled") : QFileInfo(file).fileName();
     QAction *action = m_actions->get(Actions::ExportReport);

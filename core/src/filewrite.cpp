@@ -175,17 +175,18 @@ Status writeStandardOutput(std::string_view bytes)
                      "could not write the output: " + (error != 0 ? systemReason(error) : std::string("write failed")));
 }
 
-Status checkOutputIsNotAnInput(const std::string &output, const std::vector<std::string> &inputs)
+long indexOfSameFile(const std::string &output, const std::vector<std::string> &inputs)
 {
     if (output == "-")
-        return Done{};
+        return -1;
     struct stat out {};
     if (::stat(output.c_str(), &out) != 0)
-        return Done{}; // a new file cannot be an input
+        return -1; // a new file cannot be an input
     char *outCanonical = ::realpath(output.c_str(), nullptr);
     const std::string outPath = outCanonical ? outCanonical : output;
     std::free(outCanonical);
-    for (const std::string &input : inputs) {
+    for (std::size_t i = 0; i < inputs.size(); ++i) {
+        const std::string &input = inputs[i];
         struct stat in {};
         if (input.empty() || ::stat(input.c_str(), &in) != 0)
             continue;
@@ -193,11 +194,19 @@ Status checkOutputIsNotAnInput(const std::string &output, const std::vector<std:
         const std::string inPath = inCanonical ? inCanonical : input;
         std::free(inCanonical);
         if (sameFile(out, in) || inPath == outPath)
-            return fieldError(ErrorKind::Assumption, "--out",
-                              "--out: " + output + " is the input " + input
-                                  + " (the same file): writing there would destroy it; choose another file");
+            return static_cast<long>(i);
     }
-    return Done{};
+    return -1;
+}
+
+Status checkOutputIsNotAnInput(const std::string &output, const std::vector<std::string> &inputs)
+{
+    const long i = indexOfSameFile(output, inputs);
+    if (i < 0)
+        return Done{};
+    return fieldError(ErrorKind::Assumption, "--out",
+                      "--out: " + output + " is the input " + inputs[static_cast<std::size_t>(i)]
+                          + " (the same file): writing there would destroy it; choose another file");
 }
 
 namespace testing {

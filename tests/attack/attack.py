@@ -194,6 +194,9 @@ try:
         extra = {"var": [], "backtest": ["--window", "50"], "pack": ["--out", path("tiny.tailwise")]}[cmd]
         case("5 %s on subnormal prices" % cmd, [cmd, "--prices", tiny, "--holdings", holdings] + extra, 1,
              ["tiny.csv, line 2, column 2", "subnormal"], inputs + [tiny])
+    tiny_book = workbook("tiny.tailwise", lambda d: d["prices"]["rows"][1].__setitem__(0, 5e-324))
+    case("5 a workbook with a subnormal price", ["var", "--workbook", tiny_book], 1,
+         ["prices.rows[1][0]", "subnormal"], inputs + [tiny_book])
     over = write("overflow.csv", "\n".join([lines[0], lines[1], lines[2].split(",")[0] + ",1e-300," + ",".join(lines[2].split(",")[2:]),
                                            lines[3].split(",")[0] + ",1e300," + ",".join(lines[3].split(",")[2:])]
                                           + lines[4:]) + "\n")

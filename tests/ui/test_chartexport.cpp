@@ -9,6 +9,7 @@
 #include "document/workbookfile.h"
 #include "export/captions.h"
 #include "export/chartrender.h"
+#include "export/plotcheck.h"
 #include "export/workbookresults.h"
 #include "text/numbers.h"
 
@@ -20,9 +21,13 @@
 #include <QImage>
 #include <QRegularExpression>
 #include <QTest>
+
+#include <qcustomplot.h>
 #include <QXmlStreamReader>
 
 #include <algorithm>
+#include <limits>
+#include <memory>
 
 using namespace tailwise;
 using namespace tailwise::ui;
@@ -40,6 +45,23 @@ WorkbookContents sample()
     if (!loaded)
         qFatal("cannot load the sample: %s", loaded.error().message.c_str());
     return std::move(loaded).value();
+}
+
+// The first attribute of an SVG whose value holds a number that is not finite ("inf", "-inf",
+// "nan", as Qt writes them), or empty. Attribute values only: text may say anything.
+QString svgNonFiniteNumber(const QByteArray &svg)
+{
+    static const QRegularExpression token(QStringLiteral("(^|[^A-Za-z])-?(inf|nan)($|[^A-Za-z])"),
+                                          QRegularExpression::CaseInsensitiveOption);
+    QXmlStreamReader xml(svg);
+    while (!xml.atEnd()) {
+        if (xml.readNext() != QXmlStreamReader::StartElement)
+            continue;
+        for (const QXmlStreamAttribute &a : xml.attributes())
+            if (token.match(a.value()).hasMatch())
+                return QStringLiteral("<%1 %2=\"%3\">").arg(xml.name(), a.name(), a.value());
+    }
+    return {};
 }
 
 const WorkbookResults &sampleResults()
@@ -115,6 +137,7 @@ private slots:
     void modelComparisonChartData();
     void captionIsDrawnAsText();
     void noScreenChrome();
+    void plotCheckFindsEveryNonFiniteNumber();
 };
 
 void TestChartExport::everyChartInEveryFormat_data()
@@ -153,6 +176,7 @@ void TestChartExport::everyChartInEveryFormat()
         QVERIFY2(problem.isEmpty(), qPrintable(problem));
         QVERIFY2(texts >= 5, qPrintable(QStringLiteral("%1 <text> elements, expected at least 5").arg(texts)));
         QVERIFY2(bytes.contains("width=\"170mm\"") || bytes.contains("width=\"170.0"), "SVG width in mm");
+        QVERIFY2(svgNonFiniteNumber(bytes).isEmpty(), qPrintable(svgNonFiniteNumber(bytes)));
         break;
     }
     case ExportFormat::Pdf:
@@ -373,6 +397,49 @@ void TestChartExport::noScreenChrome()
     // White background: the first pixel of a PNG is white.
     const QImage image = renderChartImage(ChartKind::Backtest, sampleResults(), ChartPrintOptions{}, 50);
     QCOMPARE(image.pixelColor(0, 0), QColor(Qt::white));
+}
+
+// The last guard before SVG and PDF (export/plotcheck.h): an infinite or undefined number
+// anywhere a chart paints is found and named, so the chart says why it is not drawn instead of
+// writing "inf" into a file. Common practice: SVG 1.1 and PDF 1.7 numbers are finite decimals.
+void TestChartExport::plotCheckFindsEveryNonFiniteNumber()
+{
+    const double inf = std::numeric_limits<double>::infinity();
+    const double nan = std::numeric_limits<double>::quiet_NaN();
+    const auto fresh = [] {
+        auto plot = std::make_unique<QCustomPlot>();
+        plot->xAxis->setLabel(QStringLiteral("Loss"));
+        QCPGraph *g = plot->addGraph();
+        g->setName(QStringLiteral("density"));
+        g->setData(QVector<double>{0.0, 1.0, 2.0}, QVector<double>{0.1, 0.4, 0.1});
+        auto *line = new QCPItemStraightLine(plot.get());
+        line->point1->setCoords(1.0, 0.0);
+        line->point2->setCoords(1.0, 1.0);
+        return plot;
+    };
+    QVERIFY(nonFiniteInPlot(*fresh()).isEmpty());
+    {
+        auto plot = fresh();
+        plot->graph(0)->addData(3.0, inf);
+        const QString problem = nonFiniteInPlot(*plot);
+        QVERIFY2(problem.contains(QStringLiteral("density")) && problem.contains(QStringLiteral("not a finite number")),
+                 qPrintable(problem));
+    }
+    {
+        auto plot = fresh();
+        auto *text = new QCPItemText(plot.get());
+        text->setText(QStringLiteral("VaR"));
+        text->position->setCoords(nan, 0.5);
+        const QString problem = nonFiniteInPlot(*plot);
+        QVERIFY2(problem.contains(QStringLiteral("VaR")), qPrintable(problem));
+    }
+    {
+        auto plot = fresh();
+        auto *bars = new QCPBars(plot->xAxis, plot->yAxis);
+        bars->setName(QStringLiteral("contributions"));
+        bars->setData(QVector<double>{1.0, 2.0}, QVector<double>{5.0, -inf});
+        QVERIFY2(nonFiniteInPlot(*plot).contains(QStringLiteral("contributions")), qPrintable(nonFiniteInPlot(*plot)));
+    }
 }
 
 QTEST_MAIN(TestChartExport)

@@ -15,10 +15,13 @@
 #include "export/reportpdf.h"
 #include "export/reportsections.h"
 #include "text/numbers.h"
+#include "text/version.h"
 
 #include "tailwise/backtest.h"
 #include "tailwise/comparison.h"
 #include "tailwise/risk.h"
+#include "tailwise/date.h"
+#include "tailwise/inputhash.h"
 
 #include <QAction>
 #include <QBuffer>
@@ -74,6 +77,7 @@ private slots:
     void reportWithoutFiguresStillHasAssumptionsAndCautions();
     void reportStatesTheMultiDayScaling();
     void windowExportsTheReportFromTheFileMenu();
+    void reportCarriesTheRunStamp();
 };
 
 void TestReport::sampleReportHasItsFiguresAssumptionsAndCautions()
@@ -283,6 +287,45 @@ void TestReport::windowExportsTheReportFromTheFileMenu()
     // The window's own headline figure is on the report.
     QVERIFY(window.workbook().results().report().has_value());
     QVERIFY2(squeezed(text).contains(moneyText(window.workbook().results().report()->figures.var)), qPrintable(text.left(2000)));
+}
+
+// The report names what made it, as the command line's stamp does (tool_version, as_of, seed,
+// input_sha256; tailwise/inputhash.h): in its words and in the PDF's XMP metadata (ISO 16684-1),
+// so that a figure in a letter can be traced to its inputs.
+void TestReport::reportCarriesTheRunStamp()
+{
+    auto loaded = loadWorkbook(samplePath());
+    QVERIFY(loaded.ok());
+    WorkbookContents contents = loaded.value();
+    const QString digest = QString::fromStdString(inputSha256(contents.prices, contents.holdings, contents.assumptions));
+    QCOMPARE(digest.size(), qsizetype(64));
+    const QString asOf = QString::fromStdString(toIso(contents.prices.dates.back()));
+
+    ReportData data = computeReportData(contents);
+    QBuffer buffer;
+    QVERIFY(buffer.open(QIODevice::WriteOnly));
+    QVERIFY(writeReport(data, QStringLiteral("larchmere.tailwise"), buffer, QDate(2026, 12, 1)) > 0);
+    const QByteArray pdf = buffer.data();
+    QVERIFY2(pdf.contains(("input_sha256=" + digest).toLatin1()), "the digest in the PDF's metadata");
+    QVERIFY2(pdf.contains(("as_of=" + asOf).toLatin1()), "the as-of date in the PDF's metadata");
+    QVERIFY2(pdf.contains(QByteArray("tool_version=") + versionText()), "the version in the PDF's metadata");
+    QVERIFY2(pdf.contains("<dc:description>"), "a subject in the PDF's metadata");
+
+    report::ReportInputs in;
+    in.contents = &contents;
+    in.workbookName = QStringLiteral("larchmere.tailwise");
+    in.date = QDate(2026, 12, 1);
+    const QString words = report::buildReport(in).plainText();
+    QVERIFY2(words.contains(digest) && words.contains(asOf), qPrintable(words.left(800)));
+    QVERIFY2(!words.contains(QStringLiteral("seed")), "no seed unless Monte Carlo");
+
+    // A changed confidence changes the digest; Monte Carlo names its seed.
+    contents.assumptions.confidence = 0.975;
+    contents.assumptions.model = RiskModel::MonteCarlo;
+    contents.assumptions.seed = 424242;
+    const QString other = report::buildReport(in).plainText();
+    QVERIFY(!other.contains(digest));
+    QVERIFY2(other.contains(QStringLiteral("seed 424242")), qPrintable(other.left(800)));
 }
 
 QTEST_MAIN(TestReport)

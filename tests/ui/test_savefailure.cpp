@@ -1,7 +1,8 @@
 // A save from the window that fails on a full disk — at any point of the file — never looks like
 // a save: the message gives the system's reason, the workbook keeps its unsaved mark and its
 // contents, and the file saved before is byte-for-byte what it was. The disk is a stub of
-// write(2) that fails after a number of bytes (tailwise/filewrite.h's test hook).
+// write(2) that fails after a number of bytes (tailwise/filewrite.h's test hook). And no save or
+// export replaces a file the workbook was read from.
 #include "../fulldiskwrite.h"
 #include "document/commands.h"
 #include "document/workbook.h"
@@ -65,6 +66,43 @@ private slots:
         testing::setFileWriteFunctions(nullptr);
         QVERIFY(w->saveWorkbookFile(path).isEmpty());
         QVERIFY(!wb.isModified());
+    }
+
+    // Save As and the exports never replace a file the workbook was read from (the imported CSVs,
+    // and for exports the workbook's own file), by name or through a hard link; nothing is written
+    // and the workbook keeps its unsaved mark.
+    void outputNeverReplacesAnInput()
+    {
+        auto w = sampleWindow();
+        Workbook &wb = w->workbook();
+        QTemporaryDir dir;
+        const QString prices = dir.filePath(QStringLiteral("prices.csv"));
+        const QString holdings = dir.filePath(QStringLiteral("holdings.csv"));
+        QVERIFY(QFile::copy(samplePath("prices.csv"), prices));
+        QVERIFY(QFile::copy(samplePath("holdings.csv"), holdings));
+        QVERIFY(w->importPriceHistoryFile(prices).isEmpty());
+        QVERIFY(w->holdingsEditor()->importHoldingsFile(holdings).isEmpty());
+        const QByteArray pricesBefore = readAll(prices), holdingsBefore = readAll(holdings);
+        const QString link = dir.filePath(QStringLiteral("another-name.csv"));
+        QCOMPARE(::link(QFile::encodeName(prices).constData(), QFile::encodeName(link).constData()), 0);
+
+        for (const QString &target : {prices, holdings, link}) {
+            const QString problem = w->saveWorkbookFile(target);
+            QVERIFY2(problem.contains(QStringLiteral("would replace")) && problem.contains(target), qPrintable(problem));
+            QVERIFY(wb.isModified());
+        }
+        const QString problem = w->holdingsEditor()->exportHoldingsFile(holdings);
+        QVERIFY2(problem.contains(QStringLiteral("would replace")), qPrintable(problem));
+        QCOMPARE(readAll(prices), pricesBefore);
+        QCOMPARE(readAll(holdings), holdingsBefore);
+
+        // The workbook's own file: Save writes it, an export must not.
+        const QString book = dir.filePath(QStringLiteral("fund.tailwise"));
+        QVERIFY(w->saveWorkbookFile(book).isEmpty());
+        const QByteArray bookBefore = readAll(book);
+        QVERIFY(w->holdingsEditor()->exportHoldingsFile(book).contains(QStringLiteral("would replace")));
+        QCOMPARE(readAll(book), bookBefore);
+        QVERIFY(w->saveWorkbookFile(book).isEmpty());
     }
 };
 

@@ -10,6 +10,7 @@
 #include "models/holdingsmodel.h"
 #include "panels/charttabs.h"
 #include "panels/holdingspaste.h"
+#include "text/names.h"
 #include "text/numbers.h"
 
 #include "tailwise/risk.h"
@@ -325,6 +326,83 @@ private slots:
         QCOMPARE(wb.undoStack()->count(), steps);
         w->results().computeNow(Part::Headline);
         QCOMPARE(wb.results().report()->figures.var, var);
+    }
+
+    // A name at the file's limit (100 characters, tailwise/textlimits.h) must not push the
+    // holdings column, the window or the contributions chart apart: the column is capped and
+    // elides in the middle, the tooltip gives the whole name, the chart's axis a shortened one.
+    void longNamesAreElided()
+    {
+        const QString longName = QStringLiteral("HARBOUR_") + QString(84, QLatin1Char('X')) + QStringLiteral("_CLASS_B");
+        QCOMPARE(longName.size(), 100);
+        QTemporaryDir dir;
+        const QString prices = dir.filePath(QStringLiteral("prices.csv"));
+        const QString holdings = dir.filePath(QStringLiteral("holdings.csv"));
+        {
+            QFile f(prices);
+            QVERIFY(f.open(QIODevice::WriteOnly));
+            QByteArray text = "date," + longName.toUtf8() + ",SHORT\n";
+            double a = 100.0, b = 50.0;
+            for (int d = 0; d < 80; ++d) {
+                a *= 1.0 + 0.01 * std::sin(d * 1.3);
+                b *= 1.0 + 0.008 * std::cos(d * 0.7);
+                text += QStringLiteral("2024-%1-%2,%3,%4\n")
+                            .arg(1 + d / 28, 2, 10, QLatin1Char('0')).arg(1 + d % 28, 2, 10, QLatin1Char('0'))
+                            .arg(a, 0, 'f', 6).arg(b, 0, 'f', 6).toUtf8();
+            }
+            f.write(text);
+        }
+        {
+            QFile f(holdings);
+            QVERIFY(f.open(QIODevice::WriteOnly));
+            f.write("asset,quantity\n" + longName.toUtf8() + ",1000\nSHORT,2000\n");
+        }
+        MainWindow w;
+        w.resize(1360, 860);
+        QVERIFY(w.importPriceHistoryFile(prices).isEmpty());
+        QVERIFY(w.holdingsEditor()->importHoldingsFile(holdings).isEmpty());
+        // A title at its limit of 200 characters (a one-line label in the headline) too.
+        const QString longTitle = QString(200, QLatin1Char('T'));
+        edit::setTitle(w.workbook(), longTitle);
+        w.results().computeNow(Part::Headline);
+        w.show();
+        QVERIFY(QTest::qWaitForWindowExposed(&w));
+        QCoreApplication::processEvents();
+
+        auto *view = w.holdingsEditor()->findChild<QTableView *>();
+        QVERIFY(view);
+        const int cap = view->fontMetrics().averageCharWidth() * (shortNameChars + 2) + 16;
+        QVERIFY2(view->columnWidth(HoldingsModel::AssetColumn) <= cap,
+                 qPrintable(QStringLiteral("asset column %1 px, cap %2 px").arg(view->columnWidth(HoldingsModel::AssetColumn)).arg(cap)));
+        QCOMPARE(view->textElideMode(), Qt::ElideMiddle);
+        const QModelIndex cell = view->model()->index(0, HoldingsModel::AssetColumn);
+        QCOMPARE(cell.data(Qt::ToolTipRole).toString(), longName);
+        auto *titleLabel = w.findChild<QLabel *>(QStringLiteral("workbookTitle"));
+        QVERIFY(titleLabel);
+        QVERIFY2(titleLabel->text().size() < longTitle.size() && titleLabel->toolTip() == longTitle,
+                 qPrintable(titleLabel->text()));
+        // No wider than the same window holding the sample's short names.
+        auto sample = sampleWindow();
+        sample->resize(1360, 860);
+        sample->show();
+        QVERIFY(QTest::qWaitForWindowExposed(sample.get()));
+        QVERIFY2(w.width() <= sample->width() && w.minimumSizeHint().width() <= sample->minimumSizeHint().width(),
+                 qPrintable(QStringLiteral("%1 px wide (minimum %2), the sample's window %3 (minimum %4)")
+                                .arg(w.width()).arg(w.minimumSizeHint().width())
+                                .arg(sample->width()).arg(sample->minimumSizeHint().width())));
+
+        const QString shown = shortName(longName);
+        QCOMPARE(shown.size(), shortNameChars);
+        QVERIFY(shown.startsWith(QStringLiteral("HARBOUR_")) && shown.endsWith(QStringLiteral("_CLASS_B")));
+        QVERIFY(shown.contains(QChar(0x2026)));
+        QCOMPARE(shortName(QStringLiteral("SHORT")), QStringLiteral("SHORT"));
+        // Characters, not UTF-16 units: a name of 40 emoji keeps whole pairs.
+        QString wide;
+        for (int i = 0; i < 40; ++i)
+            wide += QString::fromUcs4(U"\U0001F4C8", 1);
+        const QString wideShort = shortName(wide);
+        QCOMPARE(wideShort.toUcs4().size(), qsizetype(shortNameChars));
+        QVERIFY(!wideShort.isEmpty() && !wideShort.back().isHighSurrogate());
     }
 
     void pasteIsOneUndoStep()

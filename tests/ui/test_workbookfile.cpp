@@ -50,8 +50,10 @@ WorkbookContents sampleContents()
     for (int d = 0; d < days; ++d)
         for (int a = 0; a < 4; ++a)
             c.prices.prices(d, a) = std::exp(u(rng));
-    c.prices.prices(3, 0) = std::numeric_limits<double>::denorm_min();
-    c.prices.prices(4, 1) = std::numeric_limits<double>::max();
+    // Tiny and huge prices whose day-to-day ratios stay normal numbers (pricecheck.h: a subnormal
+    // price, or a ratio that overflows, is refused on reading).
+    c.prices.prices(3, 0) = 1.0e-300 * (1.0 + std::numeric_limits<double>::epsilon());
+    c.prices.prices(4, 1) = 1.0e300 * (1.0 - std::numeric_limits<double>::epsilon());
     c.prices.prices(5, 2) = 0.1 + 0.2; // 0.30000000000000004
     c.holdings = {
         Holding{"ALPHA", 1234.5, std::nullopt, std::nullopt},
@@ -462,6 +464,12 @@ void TestWorkbookFile::refusesBadFiles_data()
                                 << QStringList{"prices.rows[5][2] (GAMMA, Ltd on ", "greater than zero, found 0"};
     QTest::newRow("price negative") << edit([&](QJsonObject &o) { price(o, 7, 0, -3.5); }) << V
                                     << QStringList{"prices.rows[7][0] (ALPHA on ", "found -3.5"};
+    QTest::newRow("price subnormal") << edit([&](QJsonObject &o) { price(o, 6, 3, 5e-324); }) << V
+                                     << QStringList{"prices.rows[6][3] (DELTA/Ü on ", "subnormal"};
+    QTest::newRow("price ratio overflows") << edit([&](QJsonObject &o) {
+        price(o, 8, 0, 1e-300);
+        price(o, 9, 0, 1e300);
+    }) << V << QStringList{"prices.rows[9][0] (ALPHA on ", "overflows"};
     QTest::newRow("price null") << edit([&](QJsonObject &o) { price(o, 1, 1, QJsonValue::Null); }) << F
                                 << QStringList{"prices.rows[1][1]", "expected a price (a number), found null"};
     QTest::newRow("price too big for a double")

@@ -1,6 +1,7 @@
 #include "charts/contributionschartdata.h"
 
 #include "charts/chartstyle.h"
+#include "text/names.h"
 
 #include <QCoreApplication>
 
@@ -36,7 +37,7 @@ ContributionsChartData buildContributionsChartData(const RiskReport &report, con
     all.reserve(report.holdings.size());
     for (const HoldingRisk &h : report.holdings) {
         ContributionBar bar;
-        bar.asset = QString::fromStdString(h.asset);
+        bar.asset = shortName(QString::fromStdString(h.asset)); // an axis label: a long name is shortened
         bar.componentVar = finiteOr0(h.componentVar);
         if (h.componentShare && std::isfinite(*h.componentShare))
             bar.share = h.componentShare;

@@ -2,6 +2,7 @@
 
 #include "tailwise/filewrite.h"
 
+#include <QCoreApplication>
 #include <QDir>
 #include <QFile>
 
@@ -23,6 +24,20 @@ tailwise::Status saveFile(const QString &path, const QByteArray &bytes)
         return e;
     }
     return Done{};
+}
+
+QString refusalToOverwriteInput(const QString &path, const QStringList &inputs)
+{
+    std::vector<std::string> raw;
+    for (const QString &input : inputs)
+        raw.push_back(QFile::encodeName(input).toStdString());
+    const long i = tailwise::indexOfSameFile(QFile::encodeName(path).toStdString(), raw);
+    if (i < 0)
+        return {};
+    return QCoreApplication::translate("SaveFile",
+                                       "Writing to %1 would replace %2, a file this workbook was read from. Nothing was "
+                                       "written: choose another file.")
+        .arg(QDir::toNativeSeparators(path), QDir::toNativeSeparators(inputs[static_cast<qsizetype>(i)]));
 }
 
 } // namespace tailwise::ui

@@ -9,9 +9,15 @@
 
 #include <QByteArray>
 #include <QString>
+#include <QStringList>
 
 namespace tailwise::ui {
 
 tailwise::Status saveFile(const QString &path, const QByteArray &bytes);
+
+// Empty when writing `path` would replace none of `inputs`; otherwise the sentence that refuses
+// it, naming both files ("… would replace prices.csv, a file this workbook was read from …").
+// The same test as the command line's --out check (tailwise/filewrite.h).
+QString refusalToOverwriteInput(const QString &path, const QStringList &inputs);
 
 } // namespace tailwise::ui

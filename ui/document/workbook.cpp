@@ -2,6 +2,7 @@
 
 #include "resultsstore.h"
 
+#include <QFileInfo>
 #include <QUndoStack>
 
 namespace tailwise::ui {
@@ -35,13 +36,30 @@ void Workbook::markSaved(const QString &path)
     emit modifiedChanged(isModified());
 }
 
+void Workbook::noteImportedFrom(const QString &path)
+{
+    const QString absolute = QFileInfo(path).absoluteFilePath();
+    if (!m_importedFrom.contains(absolute))
+        m_importedFrom.append(absolute);
+}
+
+QStringList Workbook::inputFiles() const
+{
+    QStringList all = m_importedFrom;
+    if (!m_filePath.isEmpty())
+        all.prepend(m_filePath);
+    return all;
+}
+
 void Workbook::resetContents(WorkbookContents contents, const QString &fromFile)
 {
+    m_importedFrom.clear();
     replaceContents(std::move(contents), fromFile, false);
 }
 
 void Workbook::restoreUnsaved(WorkbookContents contents, const QString &belongsTo)
 {
+    m_importedFrom.clear();
     replaceContents(std::move(contents), belongsTo, true);
 }
 

@@ -20,6 +20,7 @@
 
 #include <QObject>
 #include <QString>
+#include <QStringList>
 
 #include <optional>
 
@@ -53,6 +54,12 @@ public:
     // from something that is not a file).
     bool isModified() const;
     void markSaved(const QString &path);
+    // The files this workbook's contents were imported from since it was opened or made (price
+    // and holdings CSVs), and those plus its own file: an output of the window must replace none
+    // of them (savefile.h, refusalToOverwriteInput). Cleared by resetContents().
+    void noteImportedFrom(const QString &path);
+    QStringList importedFiles() const { return m_importedFrom; }
+    QStringList inputFiles() const;
 
     // Every figure computed from this workbook, with its state (resultsstore.h).
     ResultsStore &results() const { return *m_results; }
@@ -109,6 +116,7 @@ private:
     WorkbookContents m_contents;
     QUndoStack *m_undo = nullptr;
     QString m_filePath;
+    QStringList m_importedFrom;
     bool m_unsavedWithoutUndo = false; // contents that came from no file (restored unsaved work)
     ResultsStore *m_results = nullptr;
     quint64 m_generation = 0;

@@ -5,6 +5,7 @@
 
 #include "tailwise/backtest.h"
 #include "tailwise/date.h"
+#include "tailwise/pricecheck.h"
 #include "tailwise/textlimits.h"
 
 #include <QDir>
@@ -439,6 +440,14 @@ void readPrices(const QJsonObject &o, Context &c, PriceHistory &h)
                 return c.fail(ErrorKind::Value, cell, "expected a price greater than zero, found " + shortest(price));
             h.prices(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(a)) = price;
         }
+    }
+    // A subnormal price, or a ratio to the previous day that overflows, leaves no usable return
+    // (pricecheck.h): refused here as the price reader refuses it in a CSV.
+    if (const auto bad = findUnusablePrice(h.prices)) {
+        const std::string cell = element(element(r.pathOf("rows"), static_cast<qsizetype>(bad->row)),
+                                         static_cast<qsizetype>(bad->asset))
+            + " (" + h.assets[bad->asset] + " on " + toIso(h.dates[bad->row]) + ")";
+        return c.fail(ErrorKind::Value, cell, "the price " + bad->why);
     }
 }
 

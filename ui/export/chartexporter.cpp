@@ -1,6 +1,7 @@
 #include "export/chartexporter.h"
 
 #include "document/resultsstore.h"
+#include "document/savefile.h"
 #include "document/workbook.h"
 #include "charts/tradeoffchartdata.h"
 #include "export/captions.h"
@@ -100,6 +101,10 @@ void ChartExporter::exportChart(ChartKind kind, LossTailUnit unit)
     if (QFileInfo(path).suffix().isEmpty())
         path += QLatin1Char('.') + suffix;
     m_last = s;
+    if (const QString refusal = refusalToOverwriteInput(path, m_workbook.inputFiles()); !refusal.isEmpty()) {
+        QMessageBox::warning(m_window, tr("Could not export the chart"), refusal);
+        return;
+    }
     if (const auto written = writeChart(path, s, *results); !written) {
         QMessageBox::warning(m_window, tr("Could not export the chart"), QString::fromStdString(written.error().message));
         return;

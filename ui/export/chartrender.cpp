@@ -7,6 +7,7 @@
 #include "charts/modelcomparisonchart.h"
 #include "charts/tradeoffchart.h"
 #include "document/savefile.h"
+#include "export/plotcheck.h"
 
 #include <qcustomplot.h>
 
@@ -475,8 +476,8 @@ QString chartUnavailableReason(ChartKind kind, const WorkbookResults &results)
     return {};
 }
 
-void paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const WorkbookResults &given,
-                const ChartPrintOptions &options)
+QString paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const WorkbookResults &given,
+                   const ChartPrintOptions &options)
 {
     // A currency given for this picture names the money axes in place of the workbook's own.
     std::optional<WorkbookResults> relabelled;
@@ -485,7 +486,7 @@ void paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const W
     const WorkbookResults &results = relabelled ? *relabelled : given;
     const QSizeF canvas(canvasUnits(options.sizeMm.width()), canvasUnits(options.sizeMm.height()));
     if (target.isEmpty() || canvas.isEmpty())
-        return;
+        return tr("The picture has no area to draw on.");
     const PrintFonts fonts = fontsFor(options.sizeMm);
     // The pictures with several panels or many labels get slightly smaller chart text.
     const PrintFonts chartFonts = fontsFor(options.sizeMm, kind == ChartKind::Tradeoff        ? 0.85
@@ -526,7 +527,7 @@ void paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const W
         painter.setPen(chartstyle::ink());
         painter.drawText(area, Qt::TextWordWrap | Qt::AlignCenter, unavailable);
         painter.restore();
-        return;
+        return unavailable;
     }
 
     PrintCharts charts;
@@ -544,9 +545,22 @@ void paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const W
         charts = PrintCharts{};
         buildPanes(charts, kind, results, options, area);
     }
+    // The last guard before a file: a number that is not finite would reach SVG or PDF as text
+    // ("inf") that other programs reject, so the chart says why it is not drawn instead.
+    for (const Pane &pane : charts.panes) {
+        if (const QString problem = nonFiniteInPlot(*pane.plot); !problem.isEmpty()) {
+            const QString reason = tr("This chart cannot be drawn: %1.").arg(problem);
+            painter.setFont(fonts.noteFont());
+            painter.setPen(chartstyle::ink());
+            painter.drawText(area, Qt::TextWordWrap | Qt::AlignCenter, reason);
+            painter.restore();
+            return reason;
+        }
+    }
     for (const Pane &pane : charts.panes)
         paintPane(painter, pane, chartFonts, options.currency);
     painter.restore();
+    return {};
 }
 
 tailwise::Status checkExportSettings(const ChartExportSettings &settings)
@@ -562,7 +576,8 @@ tailwise::Status checkExportSettings(const ChartExportSettings &settings)
     return Done{};
 }
 
-QImage renderChartImage(ChartKind kind, const WorkbookResults &results, const ChartPrintOptions &options, int dpi)
+QImage renderChartImage(ChartKind kind, const WorkbookResults &results, const ChartPrintOptions &options, int dpi,
+                        QString *notDrawn)
 {
     const QSize pixels = exportPixelSize(options.sizeMm, dpi);
     QImage image(pixels, QImage::Format_ARGB32_Premultiplied);
@@ -572,8 +587,10 @@ QImage renderChartImage(ChartKind kind, const WorkbookResults &results, const Ch
     image.setDotsPerMeterX(dotsPerMeter);
     image.setDotsPerMeterY(dotsPerMeter);
     QPainter painter(&image);
-    paintChart(painter, QRectF(QPointF(0, 0), QSizeF(pixels)), kind, results, options);
+    const QString reason = paintChart(painter, QRectF(QPointF(0, 0), QSizeF(pixels)), kind, results, options);
     painter.end();
+    if (notDrawn)
+        *notDrawn = reason;
     return image;
 }
 
@@ -588,10 +605,11 @@ tailwise::Status writeChart(QIODevice &device, const ChartExportSettings &settin
     const QString title = results.title.isEmpty() ? chartKindTitle(settings.kind)
                                                   : tr("%1 — %2").arg(chartKindTitle(settings.kind), results.title);
     bool written = false;
+    QString notDrawn;
     switch (settings.format) {
     case ExportFormat::Png: {
-        const QImage image = renderChartImage(settings.kind, results, settings.print, settings.dpi);
-        written = image.save(&device, "PNG");
+        const QImage image = renderChartImage(settings.kind, results, settings.print, settings.dpi, &notDrawn);
+        written = notDrawn.isEmpty() && image.save(&device, "PNG");
         break;
     }
     case ExportFormat::Svg: {
@@ -609,7 +627,7 @@ tailwise::Status writeChart(QIODevice &device, const ChartExportSettings &settin
         svg.setDescription(settings.print.caption.toHtmlEscaped());
         QPainter painter;
         if (painter.begin(&svg)) {
-            paintChart(painter, canvas, settings.kind, results, settings.print);
+            notDrawn = paintChart(painter, canvas, settings.kind, results, settings.print);
             written = painter.end();
         }
         break;
@@ -623,12 +641,14 @@ tailwise::Status writeChart(QIODevice &device, const ChartExportSettings &settin
         pdf.setCreator(QStringLiteral("Tailwise"));
         QPainter painter;
         if (painter.begin(&pdf)) {
-            paintChart(painter, QRectF(0, 0, pdf.width(), pdf.height()), settings.kind, results, settings.print);
+            notDrawn = paintChart(painter, QRectF(0, 0, pdf.width(), pdf.height()), settings.kind, results, settings.print);
             written = painter.end();
         }
         break;
     }
     }
+    if (!notDrawn.isEmpty())
+        return fieldError(ErrorKind::Value, "chart", notDrawn.toStdString());
     if (!written)
         return fieldError(ErrorKind::FileUnreadable, "out", "the picture could not be written");
     return Done{};

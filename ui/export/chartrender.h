@@ -69,8 +69,9 @@ QString chartUnavailableReason(ChartKind kind, const WorkbookResults &results);
 
 // Paints the chart filling `target` (painter coordinates). Fonts and marks are sized for
 // options.sizeMm on paper, whatever `target`'s size in painter units. A chart that cannot be
-// drawn paints its reason instead.
-void paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const WorkbookResults &results,
+// drawn (too little data, or a number that is not finite: plotcheck.h) paints its reason instead
+// and returns it; the return is empty when the chart was drawn.
+QString paintChart(QPainter &painter, const QRectF &target, ChartKind kind, const WorkbookResults &results,
                 const ChartPrintOptions &options);
 
 // Font size (points on paper) of axis labels and captions at this physical size.
@@ -89,8 +90,10 @@ struct ChartExportSettings {
 // errors name the field ("width-mm", "height-mm", "dpi").
 tailwise::Status checkExportSettings(const ChartExportSettings &settings);
 
-// The picture as an image (PNG export, clipboard), white background.
-QImage renderChartImage(ChartKind kind, const WorkbookResults &results, const ChartPrintOptions &options, int dpi);
+// The picture as an image (PNG export, clipboard), white background. `notDrawn`, when given,
+// receives paintChart's reason when the chart could not be drawn.
+QImage renderChartImage(ChartKind kind, const WorkbookResults &results, const ChartPrintOptions &options, int dpi,
+                        QString *notDrawn = nullptr);
 
 // Writes the chart in settings.format to `device` (open for writing) or to `path` (atomically:
 // a temporary file, then renamed). Errors: the chart cannot be drawn (Value, naming the chart),

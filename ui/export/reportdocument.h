@@ -70,6 +70,11 @@ struct Document {
     QString workbookName; // in every page's header
     QString dateText;     // in every page's header: the day the report was made
     QString footerNote;   // in every page's footer, beside "page n of m"
+    // The file's metadata (XMP, ISO 16684-1): its title is workbookName; the subject says what the
+    // report is, the keywords carry the run's stamp (version, as-of date, seed, input SHA-256) so
+    // that a PDF found in a folder can be traced without opening it.
+    QString subject;
+    QStringList keywords;
     std::vector<Block> blocks;
 
     void add(TextStyle style, const QString &text) { blocks.emplace_back(Text{style, text}); }

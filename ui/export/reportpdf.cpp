@@ -504,6 +504,32 @@ void Layout::paint(QPainter &painter, QPdfWriter &writer) const
     }
 }
 
+// The document's XMP packet (ISO 16684-1; Dublin Core title and description, the PDF schema's
+// Keywords and Producer, the XMP basic CreatorTool): Qt writes it as the catalogue's /Metadata
+// stream in place of its own, so it carries the title and creator too.
+QByteArray xmpPacket(const Document &document)
+{
+    const auto esc = [](const QString &t) { return t.toHtmlEscaped().toUtf8(); };
+    QByteArray x;
+    x += "<?xpacket begin=\"\xEF\xBB\xBF\" id=\"W5M0MpCehiHzreSzNTczkc9d\"?>\n";
+    x += "<x:xmpmeta xmlns:x=\"adobe:ns:meta/\">\n";
+    x += " <rdf:RDF xmlns:rdf=\"http://www.w3.org/1999/02/22-rdf-syntax-ns#\">\n";
+    x += "  <rdf:Description rdf:about=\"\" xmlns:dc=\"http://purl.org/dc/elements/1.1/\" "
+         "xmlns:pdf=\"http://ns.adobe.com/pdf/1.3/\" xmlns:xmp=\"http://ns.adobe.com/xap/1.0/\">\n";
+    x += "   <dc:format>application/pdf</dc:format>\n";
+    x += "   <dc:title><rdf:Alt><rdf:li xml:lang=\"x-default\">" + esc(document.workbookName)
+         + "</rdf:li></rdf:Alt></dc:title>\n";
+    if (!document.subject.isEmpty())
+        x += "   <dc:description><rdf:Alt><rdf:li xml:lang=\"x-default\">" + esc(document.subject)
+             + "</rdf:li></rdf:Alt></dc:description>\n";
+    if (!document.keywords.isEmpty())
+        x += "   <pdf:Keywords>" + esc(document.keywords.join(QStringLiteral("; "))) + "</pdf:Keywords>\n";
+    x += "   <pdf:Producer>Tailwise</pdf:Producer>\n";
+    x += "   <xmp:CreatorTool>Tailwise</xmp:CreatorTool>\n";
+    x += "  </rdf:Description>\n </rdf:RDF>\n</x:xmpmeta>\n<?xpacket end=\"w\"?>";
+    return x;
+}
+
 void setUp(QPdfWriter &writer, const Document &document)
 {
     writer.setPageSize(QPageSize(QPageSize::A4));
@@ -512,6 +538,7 @@ void setUp(QPdfWriter &writer, const Document &document)
     writer.setResolution(kDpi);
     writer.setTitle(document.workbookName);
     writer.setCreator(QStringLiteral("Tailwise"));
+    writer.setDocumentXmpMetadata(xmpPacket(document));
 }
 
 } // namespace

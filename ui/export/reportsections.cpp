@@ -5,9 +5,11 @@
 #include "text/backtestwords.h"
 #include "text/cautions.h"
 #include "text/headline.h"
+#include "text/names.h"
 #include "text/version.h"
 #include "text/numbers.h"
 
+#include "tailwise/inputhash.h"
 #include "tailwise/modelgrid.h"
 #include "tailwise/grid.h"
 
@@ -106,6 +108,42 @@ void addTitle(Document &doc, const ReportInputs &in)
                                       QLatin1String(versionText()), currency));
 }
 
+// What the figures were made from, as the command line's stamp (`tool_version`, `as_of`, `seed`,
+// `input_sha256`: tailwise/inputhash.h): the same inputs give the same digest in both.
+struct Stamp {
+    QString asOf;   // ISO date: the last day of the price history used
+    QString seed;   // Monte Carlo only
+    QString sha256; // of the prices, holdings and assumptions
+};
+
+Stamp stampOf(const WorkbookContents &c)
+{
+    Stamp s;
+    if (!c.prices.dates.empty())
+        s.asOf = str(toIso(c.prices.dates.back()));
+    if (c.assumptions.model == RiskModel::MonteCarlo)
+        s.seed = QString::number(c.assumptions.seed);
+    s.sha256 = str(inputSha256(c.prices, c.holdings, c.assumptions));
+    return s;
+}
+
+void addStamp(Document &doc, const WorkbookContents &c)
+{
+    const Stamp s = stampOf(c);
+    QString text = tr("Traceable to its inputs: Tailwise %1; as of %2").arg(QLatin1String(versionText()),
+                                                                          s.asOf.isEmpty() ? tr("no prices") : s.asOf);
+    if (!s.seed.isEmpty())
+        text += tr("; Monte Carlo seed %1").arg(s.seed);
+    text += tr("; input SHA-256 %1 (of the prices, holdings and assumptions; the command line prints the same "
+               "digest for the same workbook).").arg(s.sha256);
+    doc.add(TextStyle::Note, text);
+    doc.subject = tr("Value-at-Risk and Expected Shortfall report");
+    doc.keywords = {QStringLiteral("tool_version=%1").arg(QLatin1String(versionText())),
+                    QStringLiteral("as_of=%1").arg(s.asOf), QStringLiteral("input_sha256=%1").arg(s.sha256)};
+    if (!s.seed.isEmpty())
+        doc.keywords << QStringLiteral("seed=%1").arg(s.seed);
+}
+
 void addHeadline(Document &doc, const RiskReport &r)
 {
     const Assumptions &a = r.assumptions;
@@ -172,7 +210,7 @@ void addContributions(Document &doc, const RiskReport &r, const ChartFigure &cha
                  {tr("Contribution to ES"), true, 1.45}};
     double exposure = 0, alone = 0, component = 0, componentEs = 0;
     for (const HoldingRisk &h : r.holdings) {
-        t.rows.push_back({str(h.asset), moneyText(h.exposure, 0), percentText(h.weight, 1),
+        t.rows.push_back({shortName(str(h.asset)), moneyText(h.exposure, 0), percentText(h.weight, 1),
                           moneyText(h.standaloneVar, 0), moneyText(h.componentVar, 0),
                           percentText(h.componentShare, 1), moneyText(h.componentEs, 0)});
         exposure += h.exposure;
@@ -472,6 +510,7 @@ Document buildReport(const ReportInputs &in)
     doc.footerNote = tr("Estimates from past prices under a model, not advice. VaR is not the worst case: see the "
                         "cautions at the end.");
     addTitle(doc, in);
+    addStamp(doc, *in.contents);
     const RiskReport *report = in.report ? &in.report.value() : nullptr;
     if (report) {
         addHeadline(doc, *report);

@@ -3,6 +3,7 @@
 #include "document/commands.h"
 #include "document/resultsstore.h"
 #include "document/workbook.h"
+#include "text/names.h"
 #include "text/numbers.h"
 
 #include "tailwise/holdings.h"
@@ -176,6 +177,8 @@ QVariant HoldingsModel::data(const QModelIndex &index, int role) const
     case Qt::ToolTipRole:
         if (column == AssetColumn && m_workbook.prices().assetIndex(h.asset) < 0)
             return tr("The price history has no column named %1.").arg(assetName(h));
+        if (column == AssetColumn && assetName(h).size() > shortNameChars)
+            return assetName(h); // the column may elide a long name (panels/tablecolumns.h)
         if (column == QuantityColumn && h.value)
             return tr("This holding is given by its market value; type a quantity to hold units instead.");
         if (column == PriceColumn && h.priceOverride)

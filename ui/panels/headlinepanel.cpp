@@ -2,6 +2,7 @@
 
 #include "document/resultsstore.h"
 #include "document/workbook.h"
+#include "panels/elidedlabel.h"
 #include "text/headline.h"
 #include "text/numbers.h"
 
@@ -77,8 +78,13 @@ HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(pare
                                    m_value, m_currency, m_figures));
     figures->addStretch();
 
-    m_title = makeLabel(QStringLiteral("workbookTitle"), this, 1.2, true);
-    m_title->setToolTip(tr("The workbook's title, as saved in the file."));
+    // Elided, never wider than the panel: a long title must not widen the window.
+    m_title = new ElidedLabel(this);
+    m_title->setObjectName(QStringLiteral("workbookTitle"));
+    QFont titleFont = m_title->font();
+    titleFont.setPointSizeF(titleFont.pointSizeF() * 1.2);
+    titleFont.setBold(true);
+    m_title->setFont(titleFont);
     m_sentence = makeLabel(QStringLiteral("headlineSentence"), this);
     m_sentence->setWordWrap(true);
     m_notes = makeLabel(QStringLiteral("headlineNotes"), this);
@@ -109,7 +115,7 @@ HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(pare
 
 void HeadlinePanel::refresh()
 {
-    m_title->setText(m_workbook.title());
+    m_title->setFullText(m_workbook.title());
     m_title->setVisible(!m_workbook.title().isEmpty());
     m_currency->setText(m_workbook.currency());
     m_currency->setToolTip(m_workbook.currency().isEmpty()

@@ -13,6 +13,7 @@ struct RiskReport;
 
 namespace tailwise::ui {
 
+class ElidedLabel;
 class Workbook;
 
 class HeadlinePanel : public QWidget {
@@ -25,7 +26,7 @@ private:
     void refresh();
 
     Workbook &m_workbook;
-    QLabel *m_title = nullptr;
+    ElidedLabel *m_title = nullptr;
     QLabel *m_varMoney = nullptr;
     QLabel *m_varShare = nullptr;
     QLabel *m_esMoney = nullptr;

@@ -4,6 +4,7 @@
 #include "document/resultsstore.h"
 #include "document/savefile.h"
 #include "document/workbook.h"
+#include "panels/tablecolumns.h"
 #include "holdingspaste.h"
 #include "text/numbers.h"
 #include "models/holdingsmodel.h"
@@ -118,12 +119,12 @@ HoldingsEditor::HoldingsEditor(Workbook &workbook, QWidget *parent) : QWidget(pa
     // Fit columns to their content when a new set of holdings arrives (open, import, first results).
     // Risk columns fill in with the first results, so they are fitted again then.
     connect(m_model, &QAbstractItemModel::modelReset, this, [this] {
-        m_view->resizeColumnsToContents();
+        fitColumnsCapped(m_view);
         m_fitPending = true;
     });
     connect(&workbook.results(), &ResultsStore::headlineChanged, this, [this] {
         if (m_fitPending && m_workbook.results().report()) {
-            m_view->resizeColumnsToContents();
+            fitColumnsCapped(m_view);
             m_fitPending = false;
         }
     });
@@ -264,6 +265,7 @@ QString HoldingsEditor::importHoldingsFile(const QString &path)
         return problem;
     }
     edit::replaceHoldings(m_workbook, read.value(), tr("Import holdings from %1").arg(QFileInfo(path).fileName()));
+    m_workbook.noteImportedFrom(path);
     report({}, countText(static_cast<int>(read.value().size()), tr("Imported 1 holding from %2."), tr("Imported %1 holdings from %2."))
                    .replace(QLatin1String("%2"), QFileInfo(path).fileName()));
     return {};
@@ -271,6 +273,8 @@ QString HoldingsEditor::importHoldingsFile(const QString &path)
 
 QString HoldingsEditor::exportHoldingsFile(const QString &path) const
 {
+    if (const QString refusal = refusalToOverwriteInput(path, m_workbook.inputFiles()); !refusal.isEmpty())
+        return refusal;
     const std::string csv = writeHoldingsCsv(m_workbook.holdings());
     if (auto saved = saveFile(path, QByteArray(csv.data(), static_cast<qsizetype>(csv.size()))); !saved)
         return QString::fromStdString(saved.error().message);

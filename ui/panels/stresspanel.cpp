@@ -3,6 +3,7 @@
 #include "document/commands.h"
 #include "document/resultsstore.h"
 #include "document/workbook.h"
+#include "panels/tablecolumns.h"
 #include "text/numbers.h"
 
 #include <QComboBox>
@@ -29,6 +30,7 @@ enum OutcomeColumn { OName, ODate, OPnl, OShare, OColumnCount };
 QTableWidgetItem *cell(const QString &text, Qt::Alignment align = Qt::AlignRight | Qt::AlignVCenter)
 {
     auto *item = new QTableWidgetItem(text);
+    showWholeTextInTooltip(item);
     item->setFlags(Qt::ItemIsEnabled | Qt::ItemIsSelectable);
     item->setTextAlignment(align);
     return item;
@@ -75,6 +77,7 @@ StressPanel::StressPanel(Workbook &workbook, QWidget *parent) : QWidget(parent),
     m_outcomesTable->verticalHeader()->hide();
     m_outcomesTable->setEditTriggers(QAbstractItemView::NoEditTriggers);
     m_outcomesTable->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    capColumnWidths(m_outcomesTable);
     m_outcomesTable->horizontalHeader()->setStretchLastSection(true);
     m_note = new QLabel(tr("P&L of today's holdings if prices moved at once by the shocks (gains positive), and the "
                            "window's worst days replayed on today's holdings. A stress is one story, not a bound: "

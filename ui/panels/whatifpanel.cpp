@@ -5,6 +5,7 @@
 #include "document/commands.h"
 #include "document/resultsstore.h"
 #include "document/workbook.h"
+#include "panels/tablecolumns.h"
 #include "text/numbers.h"
 
 #include <QComboBox>
@@ -34,6 +35,7 @@ enum ContributionColumn { CAsset, CQuantityBefore, CQuantityAfter, CVarBefore, C
 QTableWidgetItem *readOnly(const QString &text, Qt::Alignment align = Qt::AlignRight | Qt::AlignVCenter)
 {
     auto *item = new QTableWidgetItem(text);
+    showWholeTextInTooltip(item);
     item->setFlags(Qt::ItemIsEnabled | Qt::ItemIsSelectable);
     item->setTextAlignment(align);
     return item;
@@ -102,6 +104,7 @@ WhatIfPanel::WhatIfPanel(Workbook &workbook, QWidget *parent)
     m_contributions->verticalHeader()->hide();
     m_contributions->setEditTriggers(QAbstractItemView::NoEditTriggers);
     m_contributions->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    capColumnWidths(m_contributions);
     m_contributions->horizontalHeader()->setStretchLastSection(true);
 
     m_chart = new LossTailChart(this);

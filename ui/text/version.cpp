@@ -1,6 +1,9 @@
 #include "text/version.h"
 
-// The version string shown in the window's About box and the report footer.
+#include "tailwise/version.h"
+
+// The version string shown in the window's About box and the report: the build's own
+// (tailwise/version.h), the same the command line writes as tool_version.
 namespace tailwise::ui {
-const char *versionText() { return "0.1.0"; }
+const char *versionText() { return tailwise::toolVersion(); }
 } // namespace tailwise::ui

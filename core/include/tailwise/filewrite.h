@@ -39,6 +39,11 @@ Status writeStandardOutput(std::string_view bytes);
 // exist are ignored. "-" (standard output) is never an input.
 Status checkOutputIsNotAnInput(const std::string &output, const std::vector<std::string> &inputs);
 
+// The index in `inputs` of the first file that `output` would overwrite (same canonical path, or
+// same device and inode), or -1 when none: the test behind checkOutputIsNotAnInput, for callers
+// that word the refusal themselves (the window).
+long indexOfSameFile(const std::string &output, const std::vector<std::string> &inputs);
+
 namespace testing {
 // For tests only: replaces the write(2) used by writeFileReplacing (nullptr restores it), so that
 // the n-th write or a short write can be made to fail. Also replaces fsync(2) when `fsyncFn` given.
