@@ -4,6 +4,7 @@
 #include "document/workbook.h"
 #include "panels/elidedlabel.h"
 #include "text/headline.h"
+#include "text/limitwords.h"
 #include "text/numbers.h"
 
 #include "tailwise/limits.h"
@@ -128,11 +129,9 @@ void HeadlinePanel::refreshLimits(const RiskReport &report)
         parts << QString::fromStdString(uses.error().message);
     } else {
         for (const auto &u : uses.value()) {
-            const QString measure = u.limit.measure == LimitMeasure::Var ? tr("VaR") : tr("ES");
-            const QString state = u.state == LimitState::Breached ? tr("BREACHED")
-                                  : u.state == LimitState::Warning ? tr("warning")
-                                                                   : tr("ok");
-            parts << tr("%1 limit %2: %3 used — %4").arg(measure, moneyText(u.limitMoney), percentText(u.use), state);
+            parts << tr("%1 limit %2: %3 used — %4")
+                         .arg(limitMeasureName(u.limit.measure), moneyText(u.limitMoney), percentText(u.use),
+                              limitStateWord(u.state));
         }
     }
     const bool breached = uses && anyBreached(uses.value());
