@@ -24,7 +24,7 @@ std::string batchHelpText()
 {
     return R"(tailwise-cli batch WORKBOOK... | --list FILE [options]
 
-Computes many workbooks (.tailwise), each with its stored assumptions, in parallel, and
+Computes many workbooks (.tailwise), each with its stored assumptions and limits, in parallel, and
 reports one line per workbook in the order given. A workbook that cannot be computed is reported
 on its line with its message ("error"); the others go on.
 
@@ -37,7 +37,7 @@ Options:
                        columns) or .jsonl (one JSON object per line: the `var --json` figures plus
                        "workbook"; "workbook" and "error" for a workbook that failed)
   -j N                 N workbooks at a time (default: the machine's processor count)
-  --limit SPEC         a limit checked for every workbook, repeatable:
+  --limit SPEC         a limit for every workbook instead of the workbooks' own, repeatable:
                        MEASURE=AMOUNT[%][,warn=W%][,group=NAME], MEASURE var or es
   --fail-on-breach     exit 3 when a limit is breached
   --help               this text
@@ -86,7 +86,7 @@ Outcome computeOne(const std::string &path, const DailyOptions &daily, bool want
         return o;
     }
     auto &wb = loaded.value();
-    auto settings = applyDailyOptions(daily, {});
+    auto settings = applyDailyOptions(daily, wb.limits);
     if (!settings) {
         o.error = path + ": " + settings.error().message;
         return o;

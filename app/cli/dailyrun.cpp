@@ -18,7 +18,7 @@ std::string dailyHelpText()
 Daily runs:
   --as-of DATE         compute as of DATE (YYYY-MM-DD): the history ends there (a day without
                        prices takes the last day before it) and holdings are valued at that close
-  --limit SPEC         a limit on VaR or ES, repeatable:
+  --limit SPEC         a limit on VaR or ES, repeatable, replacing the workbook's limits:
                        MEASURE=AMOUNT[%][,warn=W%][,group=NAME], MEASURE var or es, AMOUNT money
                        or percent of value (%), the warning level 80% of the limit unless stated.
                        Each limit's use and state (ok, warning, breached) is reported

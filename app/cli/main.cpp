@@ -99,7 +99,7 @@ int runVar(std::vector<std::string> args)
             return fail(exitUsage, request.error().message);
     }
     const auto &req = request.value();
-    auto settings = cli::applyDailyOptions(daily, {});
+    auto settings = cli::applyDailyOptions(daily, workbook ? workbook->limits : std::vector<Limit>{});
     if (!settings)
         return fail(exitUsage, settings.error().message);
     if (req.single && (settings.value().asOf || !daily.record.empty()))

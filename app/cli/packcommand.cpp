@@ -3,6 +3,7 @@
 #include "exitstatus.h"
 
 #include "commandline.h"
+#include "dailyrun.h"
 #include "optiongroups.h"
 #include "optiontext.h"
 
@@ -91,6 +92,7 @@ struct PackOptions {
     WhatIfOptions kept; // --scenario
     std::string title, out;
     std::optional<std::string> currency, backtestWindow, backtestTestSize, backtestModels;
+    std::vector<std::string> limits; // --limit, stored in the workbook (dailyrun.h)
     OutputOptions output;
 };
 
@@ -111,6 +113,10 @@ void declare(CommandLine &line, PackOptions &o)
     line.value("--backtest-test-size", o.backtestTestSize, "A", "test size of the verdicts (default 0.05)");
     line.value("--backtest-models", o.backtestModels, "LIST",
                "the models, comma-separated, the first one drawn and the others\ncompared with it (default normal)");
+    line.repeatable("--limit", o.limits, "SPEC",
+                    "a limit on VaR or ES to keep in the workbook, checked at every run:\n"
+                    "MEASURE=AMOUNT[%][,warn=W%][,group=NAME], MEASURE var or es, AMOUNT\n"
+                    "money or percent of value (%), warning level 80% unless stated");
     declareOutputOptions(line, o.output, Command::Pack);
     line.value("--out", o.out, "FILE",
                "the workbook to write (JSON, extension .tailwise), or - for standard\n"
@@ -168,6 +174,11 @@ int runPackCommand(const std::vector<std::string> &args)
         if (const auto problem = readBacktestOption(option, **text, *backtest))
             return fail(exitUsage, *problem);
     }
+    DailyOptions daily;
+    daily.limits = o.limits;
+    const auto limits = applyDailyOptions(daily, {});
+    if (!limits)
+        return fail(exitUsage, limits.error().message);
     if (o.out.empty())
         return fail(exitUsage, "--out: expected the workbook file to write (e.g. --out fund.tailwise)");
     const std::vector<std::string> &scenarioPaths = o.kept.scenarios;
@@ -215,6 +226,7 @@ int runPackCommand(const std::vector<std::string> &args)
     contents.assumptions = req.assumptions;
     contents.backtest = backtest;
     contents.scenarios = std::move(scenarios);
+    contents.limits = limits.value().limits;
     if (out == "-") { // --out -: the workbook to standard output, the summary to the error stream
         const auto json = ui::workbookJson(contents);
         if (!json)

@@ -22,6 +22,7 @@
 #include "tailwise/risk.h"
 #include "tailwise/date.h"
 #include "tailwise/inputhash.h"
+#include "tailwise/limits.h"
 
 #include <QAction>
 #include <QBuffer>
@@ -78,6 +79,7 @@ private slots:
     void reportStatesTheMultiDayScaling();
     void windowExportsTheReportFromTheFileMenu();
     void reportCarriesTheRunStamp();
+    void reportHasTheLimitsTable();
 };
 
 void TestReport::sampleReportHasItsFiguresAssumptionsAndCautions()
@@ -326,6 +328,36 @@ void TestReport::reportCarriesTheRunStamp()
     const QString other = report::buildReport(in).plainText();
     QVERIFY(!other.contains(digest));
     QVERIFY2(other.contains(QStringLiteral("seed 424242")), qPrintable(other.left(800)));
+}
+
+// The workbook's limits in the report: each one's use (the figure over the limit in money) and
+// state in words, from the same definitions as the command line's JSON (tailwise/limits.h:
+// use = figure / limit; warning from warning level × limit; breached above the limit).
+void TestReport::reportHasTheLimitsTable()
+{
+    auto loaded = loadWorkbook(samplePath());
+    QVERIFY(loaded.ok());
+    WorkbookContents contents = loaded.value();
+    const auto reference = computeRisk(contents.prices, contents.holdings, contents.assumptions);
+    QVERIFY(reference.ok());
+    const double var = reference.value().figures.var;
+    contents.limits = {parseLimit("var=" + std::to_string(var * 2.0)).value(),  // 50% used: ok
+                       parseLimit("var=" + std::to_string(var / 0.9)).value(),  // 90% used: warning
+                       parseLimit("es=" + std::to_string(var)).value()};        // ES > VaR: breached
+    report::ReportInputs in;
+    in.contents = &contents;
+    in.workbookName = QStringLiteral("larchmere.tailwise");
+    in.date = QDate(2026, 12, 1);
+    in.report = reference;
+    const report::Document doc = report::buildReport(in);
+    const QString words = doc.plainText();
+    QVERIFY2(words.contains(QStringLiteral("Limits")), qPrintable(words.left(1500)));
+    QVERIFY2(words.contains(percentText(0.5, 1)) && words.contains(percentText(0.9, 1)), qPrintable(words.left(3000)));
+    QVERIFY(words.contains(QStringLiteral("BREACHED")) && words.contains(QStringLiteral("warning")));
+    QVERIFY(words.contains(QStringLiteral("At least one limit is breached")));
+
+    contents.limits.clear();
+    QVERIFY(!report::buildReport(in).plainText().contains(QStringLiteral("Limit in money")));
 }
 
 QTEST_MAIN(TestReport)

@@ -5,6 +5,7 @@
 
 #include "tailwise/assumptions.h"
 #include "tailwise/holdings.h"
+#include "tailwise/limits.h"
 #include "tailwise/prices.h"
 #include "tailwise/result.h"
 #include "tailwise/stress.h"
@@ -38,6 +39,9 @@ struct WorkbookContents {
     std::optional<BacktestSettings> backtest; // unset: the window's defaults (BacktestSettings{})
     // Named per-asset price shocks (stress.h), in the order shown; every asset is in `prices`.
     std::vector<tailwise::StressScenario> scenarios;
+    // Limits on VaR and ES (limits.h), checked at every run; written as their text form
+    // ("var=250000", "es=2.5%,warn=90%").
+    std::vector<tailwise::Limit> limits;
     // What reading the file noted (e.g. absent assumptions that took their defaults): shown when
     // the file is opened, never written back.
     tailwise::Warnings warnings;

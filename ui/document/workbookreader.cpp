@@ -5,6 +5,7 @@
 
 #include "tailwise/backtest.h"
 #include "tailwise/date.h"
+#include "tailwise/limits.h"
 #include "tailwise/pricecheck.h"
 #include "tailwise/textlimits.h"
 
@@ -644,6 +645,30 @@ Result<WorkbookContents> detail::contentsFromJson(const QJsonObject &root, const
         const QJsonArray scenarios = r.array("scenarios");
         if (c.ok())
             readScenarios(scenarios, contents.prices, c, contents.scenarios);
+    }
+    if (c.ok() && r.has("limits")) {
+        // Optional: each limit in its text form (limits.h); groups are not held yet, so a group is refused.
+        const QJsonArray limits = r.array("limits");
+        for (qsizetype i = 0; i < limits.size() && c.ok(); ++i) {
+            const std::string at = element("limits", i);
+            if (!limits[i].isString()) {
+                c.fail(ErrorKind::Format, at, "expected a limit such as \"var=250000\", found " + describe(limits[i]));
+                break;
+            }
+            auto limit = parseLimit(limits[i].toString().toStdString(), at);
+            if (limit.ok()) {
+                if (const auto checked = checkLimits({limit.value()}, {}, at); !checked.ok())
+                    limit = checked.error();
+            }
+            if (!limit.ok()) {
+                std::string what = limit.error().message;
+                if (what.rfind(at + ": ", 0) == 0)
+                    what.erase(0, at.size() + 2);
+                c.fail(limit.error().kind, at, what);
+                break;
+            }
+            contents.limits.push_back(limit.value());
+        }
     }
     if (!c.ok())
         return *c.problem;

@@ -4,6 +4,7 @@
 
 #include "tailwise/backtest.h"
 #include "tailwise/date.h"
+#include "tailwise/limits.h"
 
 #include <QDir>
 #include <QFileInfo>
@@ -155,6 +156,12 @@ QJsonObject contentsJson(const WorkbookContents &contents, const QJsonObject &ex
         root["backtest"] = backtestJson(*contents.backtest);
     if (!contents.scenarios.empty())
         root["scenarios"] = scenariosJson(contents.scenarios);
+    if (!contents.limits.empty()) {
+        QJsonArray limits;
+        for (const Limit &l : contents.limits)
+            limits.append(QString::fromStdString(limitText(l)));
+        root["limits"] = limits;
+    }
     return root;
 }
 

@@ -5,11 +5,13 @@
 #include "text/backtestwords.h"
 #include "text/cautions.h"
 #include "text/headline.h"
+#include "text/limitwords.h"
 #include "text/names.h"
 #include "text/version.h"
 #include "text/numbers.h"
 
 #include "tailwise/inputhash.h"
+#include "tailwise/limits.h"
 #include "tailwise/modelgrid.h"
 #include "tailwise/grid.h"
 
@@ -176,6 +178,37 @@ void addHeadline(Document &doc, const RiskReport &r)
             notes << str(w);
         doc.add(TextStyle::Note, tr("Notes from the computation: %1.").arg(notes.join(QStringLiteral("; "))));
     }
+}
+
+// The workbook's limits (tailwise/limits.h) against the headline figures: each limit's amount,
+// the figure, the share of the limit used and the state in words. Nothing when there are none.
+void addLimits(Document &doc, const std::vector<Limit> &limits, const RiskReport &r)
+{
+    if (limits.empty())
+        return;
+    doc.add(TextStyle::Heading, tr("Limits"));
+    const auto uses = evaluateLimits(limits, {r.figures.var, r.figures.es, r.portfolioValue});
+    if (!uses) {
+        doc.add(TextStyle::Body, tr("The limits could not be checked: %1.").arg(str(uses.error().message)));
+        return;
+    }
+    Table t;
+    t.columns = {{tr("Measure"), false, 1.0}, {tr("Limit"), true, 1.4}, {tr("Limit in money"), true, 1.3},
+                 {tr("Warning at"), true, 1.0}, {tr("Figure"), true, 1.3}, {tr("Used"), true, 1.0},
+                 {tr("State"), false, 1.1}};
+    for (std::size_t i = 0; i < uses.value().size(); ++i) {
+        const LimitUse &u = uses.value()[i];
+        t.rows.push_back({limitMeasureName(u.limit.measure), limitSetText(u.limit), moneyText(u.limitMoney, 0),
+                          percentText(u.limit.warningLevel, 0), moneyText(u.value, 0), percentText(u.use, 1),
+                          limitStateWord(u.state)});
+        if (u.state == LimitState::Breached)
+            t.boldRows.push_back(static_cast<int>(i)); // bold as well as the word, never colour alone
+    }
+    doc.add(t);
+    doc.add(TextStyle::Note, anyBreached(uses.value())
+                                 ? tr("At least one limit is breached: the figure is above the limit set in the workbook.")
+                                 : tr("A limit is in warning from its warning level (80% of the limit unless set) "
+                                      "and breached above the limit itself."));
 }
 
 void addLossTail(Document &doc, const RiskReport &r, const ChartFigure &chart)
@@ -514,6 +547,7 @@ Document buildReport(const ReportInputs &in)
     const RiskReport *report = in.report ? &in.report.value() : nullptr;
     if (report) {
         addHeadline(doc, *report);
+        addLimits(doc, in.contents->limits, *report);
         addLossTail(doc, *report, in.charts.lossTail);
         addContributions(doc, *report, in.charts.contributions);
         addHorizonAndConfidence(doc, *report, in.charts.tradeoff);

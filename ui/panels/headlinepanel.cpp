@@ -4,8 +4,10 @@
 #include "document/workbook.h"
 #include "panels/elidedlabel.h"
 #include "text/headline.h"
+#include "text/limitwords.h"
 #include "text/numbers.h"
 
+#include "tailwise/limits.h"
 #include "tailwise/risk.h"
 
 #include <QFrame>
@@ -89,11 +91,16 @@ HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(pare
     m_sentence->setWordWrap(true);
     m_notes = makeLabel(QStringLiteral("headlineNotes"), this);
     m_notes->setWordWrap(true);
+    m_limits = makeLabel(QStringLiteral("headlineLimits"), this);
+    m_limits->setWordWrap(true);
+    m_limits->setToolTip(tr("The workbook's limits on VaR and ES: how much of each the figure uses, and its state "
+                            "(ok below the warning level, warning from there up to the limit, breached above it)."));
 
     auto *layout = new QVBoxLayout(this);
     layout->setContentsMargins(4, 4, 4, 4);
     layout->addWidget(m_title);
     layout->addWidget(m_figures);
+    layout->addWidget(m_limits);
     layout->addWidget(m_sentence);
     layout->addWidget(m_notes);
 
@@ -111,6 +118,30 @@ HeadlinePanel::HeadlinePanel(Workbook &workbook, QWidget *parent) : QWidget(pare
             refresh();
     });
     refresh();
+}
+
+void HeadlinePanel::refreshLimits(const RiskReport &report)
+{
+    const auto &limits = m_workbook.contents().limits;
+    const auto uses = evaluateLimits(limits, {report.figures.var, report.figures.es, report.portfolioValue});
+    QStringList parts;
+    if (!uses) {
+        parts << QString::fromStdString(uses.error().message);
+    } else {
+        for (const auto &u : uses.value()) {
+            parts << tr("%1 limit %2: %3 used — %4")
+                         .arg(limitMeasureName(u.limit.measure), moneyText(u.limitMoney), percentText(u.use),
+                              limitStateWord(u.state));
+        }
+    }
+    const bool breached = uses && anyBreached(uses.value());
+    m_limits->setText(parts.isEmpty() ? QString()
+                                      : (breached ? tr("Limits (one breached): %1.") : tr("Limits: %1."))
+                                            .arg(parts.join(QStringLiteral("; "))));
+    QFont font = m_limits->font();
+    font.setBold(breached); // bold as well as the word, never colour alone
+    m_limits->setFont(font);
+    m_limits->setVisible(!parts.isEmpty());
 }
 
 void HeadlinePanel::refresh()
@@ -144,10 +175,12 @@ void HeadlinePanel::refresh()
             notes << QString::fromStdString(w);
         m_notes->setText(notes.isEmpty() ? QString() : tr("Note: %1.").arg(notes.join(QStringLiteral("; "))));
         m_notes->setVisible(!notes.isEmpty());
+        refreshLimits(*report);
         return;
     }
     m_figures->setVisible(false);
     m_notes->setVisible(false);
+    m_limits->setVisible(false);
     // Nothing to measure yet is not an error: say how to start instead.
     if (!m_workbook.hasPrices()) {
         m_sentence->setText(tr("To start, open a workbook (File ▸ Open), or import a price history and then holdings "

@@ -24,6 +24,7 @@ public:
 
 private:
     void refresh();
+    void refreshLimits(const tailwise::RiskReport &report);
 
     Workbook &m_workbook;
     ElidedLabel *m_title = nullptr;
@@ -35,6 +36,7 @@ private:
     QLabel *m_currency = nullptr; // the workbook's currency code, beside the portfolio value
     QLabel *m_sentence = nullptr;
     QLabel *m_notes = nullptr;
+    QLabel *m_limits = nullptr; // the workbook's limits: each one's use and state, in words
     QWidget *m_figures = nullptr;
 };
 

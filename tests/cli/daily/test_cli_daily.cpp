@@ -140,6 +140,28 @@ private slots:
         QVERIFY(jsonOf(r.out)["input_sha256"].toString() != p["input_sha256"].toString());
     }
 
+    void packStoresLimitsThatEveryRunChecks()
+    {
+        QTemporaryDir dir;
+        const QString wb = dir.path() + "/limited.tailwise";
+        const QStringList pack{"pack", "--prices", samplePrices, "--holdings", sampleHoldings, "--limit", "var=1%",
+                               "--limit", "es=99%,warn=90%", "--out", wb};
+        const Run p = runCli(pack);
+        QVERIFY2(p.exitCode == 0, describe(pack, p));
+        const Run r = runCli({"var", "--workbook", wb, "--json"});
+        const QJsonArray limits = jsonOf(r.out)["limits"].toArray();
+        QCOMPARE(limits.size(), 2);
+        QCOMPARE(limits[0].toObject()["state"].toString(), QString("breached"));
+        QCOMPARE(limits[1].toObject()["state"].toString(), QString("ok"));
+        QCOMPARE(limits[1].toObject()["warning_level"].toDouble(), 0.9);
+        QCOMPARE(runCli({"var", "--workbook", wb, "--fail-on-breach"}).exitCode, 3);
+        // Limits given on the command line replace the stored ones.
+        QCOMPARE(jsonOf(runCli({"var", "--workbook", wb, "--json", "--limit", "var=99%"}).out)["limits"].toArray().size(), 1);
+        const Run bad = runCli({"pack", "--prices", samplePrices, "--holdings", sampleHoldings, "--limit", "var=0", "--out", wb});
+        QVERIFY2(bad.exitCode == 2 && bad.err.contains("--limit"), qPrintable(bad.err));
+        QVERIFY(runCli({"var", "--help"}).out.contains("--fail-on-breach"));
+    }
+
     void badLimitsAndDatesAreRefusedByName()
     {
         struct Case {
