@@ -11,6 +11,7 @@
 
 #include "document/backtestrequest.h"
 
+#include "tailwise/filewrite.h"
 #include "tailwise/asof.h"
 #include "tailwise/backtest.h"
 #include "tailwise/holdings.h"
@@ -37,6 +38,11 @@ int runBacktestCommand(const std::vector<std::string> &argsIn)
         std::fputs((backtestHelpText() + "\nAlso: --as-of DATE (the history ends there), --xlsx FILE (the days and the exceptions, one sheet each).\n").c_str(), stdout);
         return exitOk;
     }
+    if (!daily.xlsx.empty()) // the tables must not replace an input
+        if (auto ok = checkOutputIsNotAnInput(daily.xlsx, {options.pricesPath, options.holdingsPath, options.workbookPath},
+                                              "--xlsx");
+            !ok)
+            return fail(exitUsage, ok.error().message);
     BacktestRequest request;
     if (!options.workbookPath.empty()) {
         // The workbook's assumptions, backtest window and first backtest model; then the options.

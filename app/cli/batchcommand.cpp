@@ -9,9 +9,11 @@
 #include "tailwise/asof.h"
 #include "tailwise/json.h"
 #include "tailwise/risk.h"
+#include "tailwise/filewrite.h"
 #include "tailwise/xlsx/tableexport.h"
 
 #include <atomic>
+#include <algorithm>
 #include <charconv>
 #include <cstdio>
 #include <filesystem>
@@ -192,6 +194,7 @@ int runBatchCommand(const std::vector<std::string> &argsIn)
     std::vector<std::string> workbooks;
     std::string listPath, outPath;
     unsigned jobs = std::max(1u, std::thread::hardware_concurrency());
+    std::vector<std::string> seen; // the single-valued options given so far
     for (std::size_t i = 0; i < args.size(); ++i) {
         const std::string &a = args[i];
         if (a == "--help" || a == "-h") {
@@ -202,6 +205,11 @@ int runBatchCommand(const std::vector<std::string> &argsIn)
             if (i + 1 >= args.size())
                 return fail(exitUsage, a + ": expected a value after " + a);
             const std::string &v = args[++i];
+            // Each is single-valued: given twice is ambiguous, so refused (never the last one silently).
+            const std::string canonical = a == "--jobs" ? "-j" : a;
+            if (std::find(seen.begin(), seen.end(), canonical) != seen.end())
+                return fail(exitUsage, a + ": given more than once: give it once");
+            seen.push_back(canonical);
             if (a == "--list") {
                 listPath = v;
             } else if (a == "--out") {
@@ -233,6 +241,13 @@ int runBatchCommand(const std::vector<std::string> &argsIn)
     const bool jsonl = outPath.size() >= 6 && outPath.compare(outPath.size() - 6, 6, ".jsonl") == 0;
     if (!outPath.empty() && !csv && !jsonl)
         return fail(exitUsage, "--out: expected a file ending in .csv or .jsonl, found \"" + outPath + "\"");
+    // The results file must not replace a workbook or the list it came from.
+    if (!outPath.empty()) {
+        std::vector<std::string> inputs = workbooks;
+        inputs.push_back(listPath);
+        if (auto ok = checkOutputIsNotAnInput(outPath, inputs); !ok)
+            return fail(exitUsage, ok.error().message);
+    }
     // Checked once before any work: the options every workbook shares.
     if (const auto checked = applyDailyOptions(daily, {}); !checked)
         return fail(exitUsage, checked.error().message);

@@ -49,6 +49,11 @@ Status takeDailyOptions(std::vector<std::string> &args, DailyOptions &options, c
         if (i + 1 >= args.size())
             return fieldError(ErrorKind::Value, a, "expected a value after " + a);
         const std::string &v = args[++i];
+        // --limit repeats by design; the others are single-valued: given twice is refused.
+        const bool again = (a == "--as-of" && options.asOf) || (a == "--record" && !options.record.empty())
+                           || (a == "--xlsx" && !options.xlsx.empty());
+        if (again)
+            return fieldError(ErrorKind::Value, a, a + ": given more than once: give it once");
         if (a == "--as-of")
             options.asOf = v;
         else if (a == "--limit")

@@ -4,6 +4,7 @@
 #include "numbertext.h"
 #include "tableexports.h"
 
+#include "tailwise/filewrite.h"
 #include "tailwise/json.h"
 #include "tailwise/store/historystore.h"
 #include "tailwise/version.h"
@@ -139,7 +140,12 @@ int runHistoryCommand(const std::vector<std::string> &args)
         } else if (a == "--workbook" || a == "--xlsx") {
             if (i + 1 >= args.size())
                 return fail(exitUsage, a + ": expected a value after " + a);
-            (a == "--workbook" ? workbook : xlsxPath) = args[++i];
+            std::string &target = a == "--workbook" ? workbook : xlsxPath;
+            if (!target.empty())
+                return fail(exitUsage, a + ": given more than once: give it once");
+            target = args[++i];
+            if (target.empty())
+                return fail(exitUsage, a + ": expected a value, found an empty text");
         } else if (!a.empty() && a[0] == '-') {
             return fail(exitUsage, "history: unknown option \"" + a + "\" (see tailwise-cli history --help)");
         } else if (path.empty()) {
@@ -152,6 +158,9 @@ int runHistoryCommand(const std::vector<std::string> &args)
         return fail(exitUsage, "history: expected the history database (tailwise-cli history FILE.db)");
     if (json && csv)
         return fail(exitUsage, "--json and --csv: choose one");
+    if (!xlsxPath.empty())
+        if (auto ok = checkOutputIsNotAnInput(xlsxPath, {path}, "--xlsx"); !ok)
+            return fail(exitUsage, ok.error().message);
     auto store = store::HistoryStore::open(path, store::OpenOptions{30000, false});
     if (!store)
         return fail(exitBadInput, store.error().message);

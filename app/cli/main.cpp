@@ -18,6 +18,7 @@
 #include "gridprint.h"
 
 #include "tailwise/asof.h"
+#include "tailwise/filewrite.h"
 #include "tailwise/modelgrid.h"
 #include "tailwise/holdings.h"
 #include "tailwise/sha256.h"
@@ -86,6 +87,13 @@ int runVar(std::vector<std::string> args)
     }
     if (const auto checked = cli::applyDailyOptions(daily, {}); !checked)
         return fail(exitUsage, checked.error().message);
+    if (!daily.xlsx.empty()) // the tables must not replace an input
+        if (auto ok = checkOutputIsNotAnInput(daily.xlsx,
+                                              {request.value().pricesPath, request.value().holdingsPath,
+                                               request.value().workbookPath},
+                                              "--xlsx");
+            !ok)
+            return fail(exitUsage, ok.error().message);
     std::optional<ui::WorkbookContents> workbook;
     if (!request.value().workbookPath.empty()) {
         auto loaded = cli::readWorkbookInput(request.value().workbookPath);

@@ -199,13 +199,14 @@ long indexOfSameFile(const std::string &output, const std::vector<std::string> &
     return -1;
 }
 
-Status checkOutputIsNotAnInput(const std::string &output, const std::vector<std::string> &inputs)
+Status checkOutputIsNotAnInput(const std::string &output, const std::vector<std::string> &inputs,
+                               const std::string &option)
 {
     const long i = indexOfSameFile(output, inputs);
     if (i < 0)
         return Done{};
-    return fieldError(ErrorKind::Assumption, "--out",
-                      "--out: " + output + " is the input " + inputs[static_cast<std::size_t>(i)]
+    return fieldError(ErrorKind::Assumption, option,
+                      option + ": " + output + " is the input " + inputs[static_cast<std::size_t>(i)]
                           + " (the same file): writing there would destroy it; choose another file");
 }
 

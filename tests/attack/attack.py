@@ -118,6 +118,10 @@ try:
                      ["render", book, "--chart", "loss-tail", "--out", old], 1,
                      ["could not save", "kept." + fmt, "No space left on device"], inputs + [old],
                      env=dict(full, TAILWISE_FAIL_WRITE_AFTER=str(n)))
+        oldxlsx = write("kept.xlsx", b"previous tables\n")
+        for n in (0, 3000):
+            case("1 var --xlsx, disk full after %d bytes" % n, ["var"] + csv + ["--xlsx", oldxlsx], 1,
+                 ["kept.xlsx", "could not"], inputs + [oldxlsx], env=dict(full, TAILWISE_FAIL_WRITE_AFTER=str(n)))
         oldpdf = write("kept-report.pdf", b"previous report\n")
         for n in (0, 5000):
             case("1 report, disk full after %d bytes" % n, ["report", book, "--out", oldpdf], 1,
@@ -138,6 +142,13 @@ try:
                                                        "--format", "svg"], 2, ["is the input"], inputs)
     case("2 report --out the workbook itself", ["report", book, "--out", book], 2, ["is the input", "book.tailwise"],
          inputs)
+    case("2 var --xlsx the prices file", ["var"] + csv + ["--xlsx", prices], 2, ["--xlsx", "is the input", "prices.csv"],
+         inputs)
+    case("2 backtest --xlsx the workbook", ["backtest", "--workbook", book, "--xlsx", book], 2,
+         ["--xlsx", "is the input", "book.tailwise"], inputs)
+    batch_list = write("books.csv", book + "\n")  # a list named like a results file
+    case("2 batch --out the list of workbooks", ["batch", "--list", batch_list, "--out", batch_list], 2,
+         ["--out", "is the input", "books.csv"], inputs + [batch_list])
     for device in ("/dev/null", "/dev/full"):
         case("2 pack --out %s" % device, ["pack"] + csv + ["--out", device], 1, ["not saved", device, "a device"],
              inputs)
@@ -288,7 +299,11 @@ try:
                          (["render", book, "--chart", "models", "--chart", "loss-tail", "--out", path("r.svg")], "--chart"),
                          (["render", book, "--chart", "models", "--out", path("r.svg"), "--out", path("s.svg")], "--out"),
                          (["report", book, "--out", path("r.pdf"), "-o", path("s.pdf")], "--out"),
-                         (["pack"] + csv + ["--title", "a", "--title", "b", "--out", path("p.tailwise")], "--title")):
+                         (["pack"] + csv + ["--title", "a", "--title", "b", "--out", path("p.tailwise")], "--title"),
+                         (["var"] + csv + ["--xlsx", path("a.xlsx"), "--xlsx", path("b.xlsx")], "--xlsx"),
+                         (["var"] + csv + ["--as-of", "2026-01-05", "--as-of", "2026-01-06"], "--as-of"),
+                         (["batch", book, "--out", path("a.csv"), "--out", path("b.csv")], "--out"),
+                         (["history", path("h.db"), "--workbook", "a", "--workbook", "b"], "--workbook")):
         case("7 %s given twice (%s)" % (option, args[0]), args, 2, [option, "given more than once"], inputs)
     rc, out, err = run(["var", "--help"])
     case("7 --help says which options repeat", ["var", "--help"], 0, [], [],

@@ -1,6 +1,7 @@
 #include "tailwise/xlsx/tableexport.h"
 
 #include "tailwise/date.h"
+#include "tailwise/filewrite.h"
 #include "tailwise/json.h"
 
 #include <xlsxwriter.h>
@@ -8,18 +9,26 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
-#include <filesystem>
+#include <cstdlib>
 #include <fstream>
-#include <random>
+#include <iterator>
+
+#include <unistd.h>
 
 namespace tailwise::xlsx {
 
 namespace {
 
-std::string temporaryBeside(const std::string &path)
+// A new empty file only this process can read, in $TMPDIR (else /tmp); empty on failure.
+std::string scratchFile()
 {
-    std::random_device rd;
-    return path + ".tmp-" + std::to_string(rd() % 1000000000u);
+    const char *dir = std::getenv("TMPDIR");
+    std::string name = std::string(dir && *dir ? dir : "/tmp") + "/tailwise-xlsx-XXXXXX";
+    const int fd = ::mkstemp(name.data());
+    if (fd < 0)
+        return {};
+    ::close(fd);
+    return name;
 }
 
 Error writeError(const std::string &path, const std::string &why)
@@ -63,33 +72,23 @@ std::string csvField(const std::string &s)
 
 Status writeFileAtomically(const std::string &path, const std::string &text)
 {
-    const std::string tmp = temporaryBeside(path);
-    {
-        std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
-        if (!out)
-            return writeError(path, "the folder cannot be written to");
-        out << text;
-        out.flush();
-        if (!out) {
-            std::remove(tmp.c_str());
-            return writeError(path, "the disk refused the data");
-        }
-    }
-    std::error_code ec;
-    std::filesystem::rename(tmp, path, ec);
-    if (ec) {
-        std::remove(tmp.c_str());
-        return writeError(path, ec.message());
-    }
-    return Done{};
+    // The one checked way every Tailwise file is written (tailwise/filewrite.h): every write,
+    // fsync and close checked, the old file untouched on failure.
+    return writeFileReplacing(path, text);
 }
 
 Status writeXlsx(const std::string &path, const std::vector<Table> &tables)
 {
-    const std::string tmp = temporaryBeside(path);
+    // libxlsxwriter writes only to a file: it makes the workbook in a private scratch file, whose
+    // bytes then go to `path` the one checked way (writeFileAtomically).
+    std::string tmp = scratchFile();
+    if (tmp.empty())
+        return writeError(path, "no scratch file could be made in the temporary folder");
     lxw_workbook *book = workbook_new(tmp.c_str());
-    if (!book)
+    if (!book) {
+        std::remove(tmp.c_str());
         return writeError(path, "the workbook could not be started");
+    }
     lxw_format *header = workbook_add_format(book);
     format_set_bold(header);
     lxw_format *money = workbook_add_format(book);
@@ -146,13 +145,14 @@ Status writeXlsx(const std::string &path, const std::vector<Table> &tables)
         std::remove(tmp.c_str());
         return writeError(path, lxw_strerror(closed));
     }
-    std::error_code ec;
-    std::filesystem::rename(tmp, path, ec);
-    if (ec) {
-        std::remove(tmp.c_str());
-        return writeError(path, ec.message());
-    }
-    return Done{};
+    std::ifstream in(tmp, std::ios::binary);
+    std::string bytes((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+    const bool read = !in.bad();
+    in.close();
+    std::remove(tmp.c_str());
+    if (!read || bytes.empty())
+        return writeError(path, "the scratch file could not be read back");
+    return writeFileAtomically(path, bytes);
 }
 
 std::string tableCsv(const Table &table)

@@ -36,8 +36,10 @@ Status writeStandardOutput(std::string_view bytes);
 
 // Refuses an output that is one of the command's inputs: the same file by canonical path or by
 // device and inode (a hard link, another spelling). The message names both. Inputs that do not
-// exist are ignored. "-" (standard output) is never an input.
-Status checkOutputIsNotAnInput(const std::string &output, const std::vector<std::string> &inputs);
+// exist are ignored. "-" (standard output) is never an input. `option` names the output's option
+// in the message ("--out", "--xlsx").
+Status checkOutputIsNotAnInput(const std::string &output, const std::vector<std::string> &inputs,
+                               const std::string &option = "--out");
 
 // The index in `inputs` of the first file that `output` would overwrite (same canonical path, or
 // same device and inode), or -1 when none: the test behind checkOutputIsNotAnInput, for callers
