@@ -6,6 +6,9 @@
 #include "windowfixture.h"
 
 #include "charts/losstailchart.h"
+#include "charts/tradeoffchart.h"
+#include "charts/tradeoffchartdata.h"
+#include "document/gridaxes.h"
 #include "document/commands.h"
 #include "document/resultsstore.h"
 #include "export/chartexporter.h"
@@ -13,6 +16,7 @@
 #include "panels/whatifpanel.h"
 
 #include "tailwise/comparison.h"
+#include "tailwise/modelgrid.h"
 #include "tailwise/risk.h"
 
 #include <QCheckBox>
@@ -65,7 +69,7 @@ private slots:
 
         ChartTabs *charts = window.chartTabs();
         QTabWidget *tabs = charts->tabs();
-        const Part partOfTab[] = {Part::Headline, Part::Headline, Part::Headline, Part::Comparison,
+        const Part partOfTab[] = {Part::Headline, Part::Grid, Part::Headline, Part::Comparison,
                                   Part::WhatIf,   Part::Stress,   Part::Backtest};
         QCOMPARE(tabs->count(), 7);
         for (int i = 1; i < tabs->count(); ++i) {
@@ -99,6 +103,29 @@ private slots:
         window.exportReportFile(pdf);
         QTRY_VERIFY_WITH_TIMEOUT(window.statusBar()->currentMessage().startsWith(QStringLiteral("Wrote the report")), 60000);
         QVERIFY(QFileInfo(pdf).size() > 0);
+
+        // The horizon tab draws the store's grid, computed off the GUI thread: core's modelRiskGrid
+        // of the headline's report; with the tab in view, an edit brings a new grid.
+        QVERIFY(charts->tradeoffChart()->data().valid);
+        QCOMPARE(charts->tradeoffChart()->data().currentVar, store.report()->figures.var);
+        {
+            tabs->setCurrentWidget(charts->tradeoffChart());
+            Holding h = wb.holdings().front();
+            h.quantity *= 1.5;
+            edit::setHolding(wb, 0, h, QStringLiteral("More"));
+            QTRY_VERIFY_WITH_TIMEOUT(store.isReady(Part::Grid)
+                                         && store.status(Part::Grid).generation == store.inputGeneration(Part::Grid),
+                                     30000);
+            QCOMPARE(charts->tradeoffChart()->data().currentVar, store.report()->figures.var);
+            const auto grid = modelRiskGrid(*store.report(), gridHorizons(*store.report()), tradeoffGridConfidences());
+            QVERIFY(grid.ok());
+            QCOMPARE(store.grid().grid->value().var, grid.value().var);
+            picture(&window, QStringLiteral("tour-1-after-edit"));
+            wb.undoStack()->undo();
+            QTRY_VERIFY_WITH_TIMEOUT(store.isReady(Part::Grid)
+                                         && store.status(Part::Grid).generation == store.inputGeneration(Part::Grid),
+                                     30000);
+        }
 
         // An edit and its undo: the headline follows both.
         const double before = store.report()->figures.var;
