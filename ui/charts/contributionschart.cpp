@@ -279,6 +279,12 @@ void ContributionsChart::fillDiversification()
     note->position->setTypeY(QCPItemPosition::ptAxisRectRatio);
     note->position->setCoords(2.0, 0.01);
     note->setFont(chartstyle::noteFont());
+    m_benefitNote = note;
+}
+
+QCPItemText *ContributionsChart::benefitNote() const
+{
+    return m_benefitNote.data();
 }
 
 } // namespace tailwise::ui

@@ -30,6 +30,9 @@ public:
 
     QSize sizeHint() const override { return {640, 360}; }
 
+    // The diversification step's sentence (paper leaves it to the caption); null when not drawn.
+    QCPItemText *benefitNote() const;
+
 private:
     void build();
     void fillBars();
@@ -46,6 +49,7 @@ private:
     // Guarded: the print layout removes items of a panel it leaves out.
     std::vector<QPointer<QCPItemText>> m_barLabels; // one per bar, at the bar's end
     std::vector<std::pair<QPointer<QCPItemText>, double>> m_stepLabels; // the step's figures, their home key
+    QPointer<QCPItemText> m_benefitNote;
 };
 
 } // namespace tailwise::ui

@@ -34,6 +34,9 @@ public:
     // The plot itself, for export (savePng, savePdf, toPixmap).
     QCustomPlot *plot() const { return m_plot; }
 
+    // The labels of the VaR and ES lines (a layout for paper places them itself).
+    QCPItemText *varLabel() const { return m_varText; }
+    QCPItemText *esLabel() const { return m_esText; }
     QSize sizeHint() const override { return {640, 360}; }
 
 protected:

@@ -147,9 +147,14 @@ void TradeoffChart::buildConfidencePlot()
     m_confidencePlot->yAxis->setLabel(tr("VaR (money)"));
 }
 
+void TradeoffChart::setForPaper()
+{
+    m_mapTitle->setText(tr("VaR over horizon and confidence"));
+}
+
 void TradeoffChart::buildMapPlot()
 {
-    addTitle(m_mapPlot, tr("VaR over horizon and confidence (click to use a point)"));
+    m_mapTitle = addTitle(m_mapPlot, tr("VaR over horizon and confidence (click to use a point)"));
     m_mapPlot->xAxis->setLabel(tr("Horizon (trading days)"));
     m_mapPlot->yAxis->setLabel(tr("Confidence (tail scale)"));
     m_mapPlot->yAxis->setTicker(confidenceTicker());

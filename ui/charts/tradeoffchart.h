@@ -18,6 +18,7 @@ class QCPColorScale;
 class QCPGraph;
 class QCPItemStraightLine;
 class QCPItemText;
+class QCPTextElement;
 class QLabel;
 class QMouseEvent;
 
@@ -34,6 +35,9 @@ public:
     QCustomPlot *horizonPlot() const { return m_horizonPlot; }
     QCustomPlot *confidencePlot() const { return m_confidencePlot; }
     QCustomPlot *mapPlot() const { return m_mapPlot; }
+
+    // For paper: the map's title without the invitation to click it.
+    void setForPaper();
 
     // The widget pixel (in mapPlot()) of a horizon and confidence, e.g. for tests that click.
     QPoint mapPixel(int horizonDays, double confidence) const;
@@ -61,6 +65,7 @@ private:
     QCustomPlot *m_mapPlot = nullptr;
     QCPColorMap *m_map = nullptr;
     QCPColorScale *m_scale = nullptr;
+    QCPTextElement *m_mapTitle = nullptr;
     // The map's labels, placed in pixels once the map is laid out (placeContourLabels).
     std::vector<std::pair<QCPItemText *, std::size_t>> m_contourLabels; // label, its level
     std::vector<QCPItemText *> m_fixedLabels;                           // "now", the ridge's note

@@ -113,12 +113,8 @@ void applyPrintStyle(QCustomPlot *plot, const QSizeF &pane, const PrintFonts &fo
     for (QCPLayoutElement *element : plot->plotLayout()->elements(true)) {
         if (auto *scale = qobject_cast<QCPColorScale *>(element))
             styleAxisForPrint(scale->axis(), fonts, currency);
-        if (auto *text = qobject_cast<QCPTextElement *>(element)) {
+        if (auto *text = qobject_cast<QCPTextElement *>(element))
             text->setFont(fonts.scaled(text->font()));
-            // The map's title invites a click; paper cannot be clicked.
-            if (text->text() == TradeoffChart::tr("VaR over horizon and confidence (click to use a point)"))
-                text->setText(TradeoffChart::tr("VaR over horizon and confidence"));
-        }
     }
     // About one number per 1.1 label widths of "1,500,000" along a horizontal axis.
     const double labelWidth = QFontMetricsF(fonts.scaled(chartstyle::tickFont())).horizontalAdvance(QStringLiteral("-1,500,000"));
@@ -208,21 +204,17 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
         // One entry a row: the entries are sentences that two columns would cut.
         moveLegendBelow(chart->plot(), 1);
         // On paper the VaR and ES labels are placed so that neither crosses a line (below).
-        QCustomPlot *p = chart->plot();
         const LossTailChartData &d = chart->data();
         const PrintFonts fonts = fontsFor(options.sizeMm);
         const auto room = [&](double x) { return (x - d.xMin) / std::max(1e-12, d.xMax - d.xMin) * area.width() * 0.8; };
-        std::vector<QCPItemText *> labels;
-        for (int i = 0; i < p->itemCount(); ++i)
-            if (auto *t = qobject_cast<QCPItemText *>(p->item(i)); t && (t->text() == d.varLabel || t->text() == d.esLabel))
-                labels.push_back(t);
+        const std::vector<QCPItemText *> labels{chart->varLabel(), chart->esLabel()};
         // Each label at its own line. Left of its own line VaR's label would cross ES's line
         // wherever the two lines are closer than the label is wide, so on paper it goes right of its
         // line; ES's goes left of its line where it fits, else right of its own line (lower down
         // than VaR's label, so the two never overlap).
         for (QCPItemText *t : labels) {
             const double width = QFontMetricsF(fonts.scaled(t->font())).horizontalAdvance(t->text()) + 12.0;
-            const bool es = t->text() == d.esLabel;
+            const bool es = t == chart->esLabel();
             const double own = es ? d.esMarker : d.tailBoundary;
             const bool fitsLeft = es && width <= room(own);
             t->setPositionAlignment((fitsLeft ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter);
@@ -235,6 +227,7 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
     case ChartKind::Tradeoff: {
         auto *chart = new TradeoffChart(host);
         chart->setData(results.tradeoff);
+        chart->setForPaper(); // paper cannot be clicked
         charts.note = results.tradeoff.note;
         // On paper the horizon lines' legend goes under them: inside, at print sizes, it covers
         // the lines and is cut by the frame.
@@ -305,9 +298,8 @@ void buildPanes(PrintCharts &charts, ChartKind kind, const WorkbookResults &resu
             p->legend->setFillOrder(QCPLegend::foColumnsFirst, true);
             p->plotLayout()->setRowStretchFactor(at, 0.001);
         }
-        for (int i = p->itemCount() - 1; i >= 0; --i)
-            if (auto *text = qobject_cast<QCPItemText *>(p->item(i)); text && text->text() == results.contributions.benefitText)
-                p->removeItem(text);
+        if (QCPItemText *note = chart->benefitNote())
+            p->removeItem(note);
         charts.panes.push_back({chart->plot(), area});
         break;
     }
