@@ -1,5 +1,6 @@
 #include "csvtext.h"
 
+#include <algorithm>
 #include <charconv>
 #include <cmath>
 #include <cstdio>
@@ -176,6 +177,103 @@ std::string quoteForMessage(std::string_view text)
         out += "…";
     out += "\"";
     return out;
+}
+
+namespace {
+
+constexpr std::size_t maxLineBytes = 64 * 1024;
+
+std::string lowercase(std::string_view s)
+{
+    std::string out(s);
+    for (char &c : out)
+        if (c >= 'A' && c <= 'Z')
+            c = static_cast<char>(c - 'A' + 'a');
+    return out;
+}
+
+} // namespace
+
+HeaderedRows::HeaderedRows(std::string_view text, std::string source, Layout layout)
+    : m_lines(text), m_source(std::move(source)), m_layout(std::move(layout)), m_index(m_layout.columns.size(), -1)
+{
+}
+
+Status HeaderedRows::readHeader()
+{
+    std::string_view line;
+    bool haveHeader = false;
+    while (m_lines.next(line)) {
+        if (line.size() > maxLineBytes)
+            return fileError(ErrorKind::Format, m_source, m_lines.lineNumber(), 0, "the line is longer than the limit of 64 KiB");
+        if (!line.empty()) {
+            haveHeader = true;
+            break;
+        }
+    }
+    if (!haveHeader)
+        return fileError(ErrorKind::Format, m_source, 0, 0, "the file is empty: expected " + m_layout.emptyExpectation);
+    m_headerLine = m_lines.lineNumber();
+    auto header = splitLine(line, m_source, m_headerLine);
+    if (!header)
+        return header.error();
+    for (const auto &cell : header.value()) {
+        const std::string name = lowercase(cell.value());
+        const auto known = std::find(m_layout.columns.begin(), m_layout.columns.end(), name);
+        if (known == m_layout.columns.end())
+            return fileError(ErrorKind::Format, m_source, m_headerLine, cell.column,
+                             "unknown column " + quoteForMessage(cell.value()) + ": expected " + m_layout.expectedColumns);
+        int &slot = m_index[static_cast<std::size_t>(known - m_layout.columns.begin())];
+        if (slot >= 0)
+            return fileError(ErrorKind::Format, m_source, m_headerLine, cell.column, "the column '" + name + "' appears twice");
+        slot = cell.column - 1;
+    }
+    m_columns = header.value().size();
+    return Done{};
+}
+
+int HeaderedRows::column(std::string_view name) const
+{
+    for (std::size_t i = 0; i < m_layout.columns.size(); ++i)
+        if (m_layout.columns[i] == name)
+            return m_index[i];
+    return -1;
+}
+
+Result<bool> HeaderedRows::next()
+{
+    std::string_view line;
+    while (m_lines.next(line)) {
+        const int lineNo = m_lines.lineNumber();
+        if (line.size() > maxLineBytes)
+            return fileError(ErrorKind::Format, m_source, lineNo, 0, "the line is longer than the limit of 64 KiB");
+        if (line.empty())
+            continue;
+        if (m_rows >= m_layout.maxRows)
+            return fileError(ErrorKind::Format, m_source, lineNo, 0,
+                             "more than " + std::to_string(m_layout.maxRows) + " " + m_layout.rowsName + ": over the limit");
+        auto split = splitLine(line, m_source, lineNo);
+        if (!split)
+            return split.error();
+        m_cells = std::move(split).value();
+        if (m_cells.size() != m_columns)
+            return fileError(ErrorKind::Format, m_source, lineNo, static_cast<int>(std::min(m_cells.size(), m_columns)) + 1,
+                             "the row has " + std::to_string(m_cells.size()) + " cells, expected "
+                                 + std::to_string(m_columns) + " as in the header");
+        ++m_rows;
+        return true;
+    }
+    return false;
+}
+
+Error HeaderedRows::error(ErrorKind kind, int column, const std::string &what) const
+{
+    return fileError(kind, m_source, m_lines.lineNumber(), column + 1, what);
+}
+
+Error HeaderedRows::errorAtLine(ErrorKind kind, int line, const std::string &what) const
+{
+    return fileError(kind, m_source, line, 0, what);
 }
 
 Result<std::string> readFileText(const std::string &path, std::size_t maxBytes)

@@ -1,4 +1,4 @@
-// Internal: the text rules shared by the CSV readers (prices, holdings).
+// Internal: the text rules shared by the CSV readers (prices, holdings, scenarios).
 // Lines end in LF or CRLF; a UTF-8 byte-order mark at the start is skipped; cells are separated
 // by commas; a cell may be double-quoted (a doubled quote inside stands for one quote).
 #pragma once
@@ -64,6 +64,58 @@ int forEachCell(std::string_view line, F &&onCell)
         start = end + 1;
     }
 }
+
+// A file of rows under a header that names its columns — the layout of the holdings and scenario
+// CSVs — read one row at a time with the rules both share, and their messages:
+//   - blank lines are skipped; a line over 64 KiB is refused ("the line is longer than the limit
+//     of 64 KiB", at its line);
+//   - the first non-blank line is the header: each cell one of the reader's column names, in any
+//     case, at most once ("unknown column \"x\": expected …", "the column 'x' appears twice", at
+//     the cell's line and column); no header at all is "the file is empty: expected …";
+//   - every later row has as many cells as the header ("the row has n cells, expected m as in the
+//     header", at the first cell missing or too many), and there are at most maxRows of them
+//     ("more than 100000 <rows>: over the limit").
+// Messages are core's fileError: "<source>:<line>:<column>: <what>".
+class HeaderedRows {
+public:
+    struct Layout {
+        std::vector<std::string_view> columns; // the column names, lowercase
+        std::string expectedColumns;           // after "unknown column …: expected "
+        std::string emptyExpectation;          // after "the file is empty: expected "
+        std::string rowsName;                  // "holdings", "shocks": in the over-the-limit message
+        std::size_t maxRows = 100000;
+    };
+
+    HeaderedRows(std::string_view text, std::string source, Layout layout);
+
+    // Reads the header; call once, first.
+    Status readHeader();
+    int headerLine() const { return m_headerLine; }
+    // The 0-based index of a column of the layout, or -1 when the header lacks it.
+    int column(std::string_view name) const;
+
+    // Moves to the next row: true with cells(), false at the end, or the row's error.
+    Result<bool> next();
+    const std::vector<Cell> &cells() const { return m_cells; }
+    std::string_view cell(int column) const { return m_cells[static_cast<std::size_t>(column)].value(); }
+    int lineNumber() const { return m_lines.lineNumber(); }
+    std::size_t rowCount() const { return m_rows; }
+
+    // An error at the current row, in the given 0-based column (-1: the whole line).
+    Error error(ErrorKind kind, int column, const std::string &what) const;
+    // An error at a line of the file, for after the last row (column 0).
+    Error errorAtLine(ErrorKind kind, int line, const std::string &what) const;
+
+private:
+    LineReader m_lines;
+    std::string m_source;
+    Layout m_layout;
+    std::vector<int> m_index; // per layout column: its 0-based index in the header, or -1
+    std::size_t m_columns = 0;
+    std::size_t m_rows = 0;
+    int m_headerLine = 0;
+    std::vector<Cell> m_cells;
+};
 
 // A finite decimal number, the whole cell; nullopt otherwise (NaN and infinity are refused).
 std::optional<double> parseNumber(std::string_view text);

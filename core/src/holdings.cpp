@@ -9,96 +9,48 @@
 
 namespace tailwise {
 
-namespace {
-
-std::string lower(std::string_view s)
-{
-    std::string out(s);
-    for (char &c : out)
-        if (c >= 'A' && c <= 'Z')
-            c = static_cast<char>(c - 'A' + 'a');
-    return out;
-}
-
-} // namespace
-
 Result<Holdings> parseHoldingsCsv(std::string_view text, const std::string &source, const PriceHistory *prices)
 {
-    constexpr std::size_t maxLine = 64 * 1024;
-    constexpr std::size_t maxHoldings = 100000;
-    csv::LineReader lines(text);
-    std::string_view line;
-    bool haveHeader = false;
-    while (lines.next(line)) {
-        if (line.size() > maxLine)
-            return fileError(ErrorKind::Format, source, lines.lineNumber(), 0, "the line is longer than the limit of 64 KiB");
-        if (!line.empty()) {
-            haveHeader = true;
-            break;
-        }
-    }
-    if (!haveHeader)
-        return fileError(ErrorKind::Format, source, 0, 0,
-                         "the file is empty: expected a header 'asset,quantity' (optionally ',price') or 'asset,value'");
-    const int headerLine = lines.lineNumber();
-    auto header = csv::splitLine(line, source, headerLine);
-    if (!header)
+    csv::HeaderedRows rows(text, source,
+                           {{"asset", "quantity", "price", "value"},
+                            "asset, quantity, price or value",
+                            "a header 'asset,quantity' (optionally ',price') or 'asset,value'",
+                            "holdings",
+                            100000});
+    if (auto header = rows.readHeader(); !header)
         return header.error();
-    int assetCol = -1, quantityCol = -1, priceCol = -1, valueCol = -1;
-    for (const auto &cell : header.value()) {
-        const std::string name = lower(cell.value());
-        int *slot = name == "asset" ? &assetCol : name == "quantity" ? &quantityCol
-                  : name == "price" ? &priceCol : name == "value" ? &valueCol : nullptr;
-        if (!slot)
-            return fileError(ErrorKind::Format, source, headerLine, cell.column,
-                             "unknown column " + csv::quoteForMessage(cell.value())
-                                 + ": expected asset, quantity, price or value");
-        if (*slot >= 0)
-            return fileError(ErrorKind::Format, source, headerLine, cell.column,
-                             "the column '" + name + "' appears twice");
-        *slot = cell.column - 1;
-    }
+    const int headerLine = rows.headerLine();
+    const int assetCol = rows.column("asset"), quantityCol = rows.column("quantity");
+    const int priceCol = rows.column("price"), valueCol = rows.column("value");
     if (assetCol < 0)
-        return fileError(ErrorKind::Format, source, headerLine, 0, "expected an 'asset' column");
+        return rows.errorAtLine(ErrorKind::Format, headerLine, "expected an 'asset' column");
     if ((quantityCol < 0) == (valueCol < 0))
-        return fileError(ErrorKind::Format, source, headerLine, 0,
-                         "expected exactly one of the columns 'quantity' or 'value'");
+        return rows.errorAtLine(ErrorKind::Format, headerLine, "expected exactly one of the columns 'quantity' or 'value'");
     if (valueCol >= 0 && priceCol >= 0)
         return fileError(ErrorKind::Format, source, headerLine, priceCol + 1,
                          "a 'price' column applies to quantities, not to holdings given by 'value'");
-    const std::size_t columns = header.value().size();
 
     Holdings holdings;
     std::unordered_map<std::string, int> firstLine;
-    while (lines.next(line)) {
-        const int lineNo = lines.lineNumber();
-        if (line.size() > maxLine)
-            return fileError(ErrorKind::Format, source, lineNo, 0, "the line is longer than the limit of 64 KiB");
-        if (line.empty())
-            continue;
-        if (holdings.size() >= maxHoldings)
-            return fileError(ErrorKind::Format, source, lineNo, 0, "more than 100000 holdings: over the limit");
-        auto split = csv::splitLine(line, source, lineNo);
-        if (!split)
-            return split.error();
-        const auto &cells = split.value();
-        if (cells.size() != columns)
-            return fileError(ErrorKind::Format, source, lineNo, static_cast<int>(std::min(cells.size(), columns)) + 1,
-                             "the row has " + std::to_string(cells.size()) + " cells, expected "
-                                 + std::to_string(columns) + " as in the header");
+    while (true) {
+        auto more = rows.next();
+        if (!more)
+            return more.error();
+        if (!more.value())
+            break;
+        const int lineNo = rows.lineNumber();
         Holding holding;
-        holding.asset = std::string(cells[static_cast<std::size_t>(assetCol)].value());
+        holding.asset = std::string(rows.cell(assetCol));
         if (holding.asset.empty())
-            return fileError(ErrorKind::Format, source, lineNo, assetCol + 1, "expected an asset name, found an empty cell");
+            return rows.error(ErrorKind::Format, assetCol, "expected an asset name, found an empty cell");
         if (const auto problem = checkText(holding.asset, maxNameChars))
-            return fileError(ErrorKind::Format, source, lineNo, assetCol + 1,
-                             describeTextProblem(*problem, "the asset name", maxNameChars));
+            return rows.error(ErrorKind::Format, assetCol, describeTextProblem(*problem, "the asset name", maxNameChars));
         auto number = [&](int col, const char *what) -> Result<double> {
-            const auto text = cells[static_cast<std::size_t>(col)].value();
+            const auto text = rows.cell(col);
             const auto v = csv::parseNumber(text);
             if (!v)
-                return fileError(ErrorKind::Value, source, lineNo, col + 1,
-                                 std::string("expected ") + what + " (a finite number), found " + csv::quoteForMessage(text));
+                return rows.error(ErrorKind::Value, col,
+                                  std::string("expected ") + what + " (a finite number), found " + csv::quoteForMessage(text));
             return *v;
         };
         if (quantityCol >= 0) {
@@ -112,29 +64,28 @@ Result<Holdings> parseHoldingsCsv(std::string_view text, const std::string &sour
                 return v.error();
             holding.value = v.value();
         }
-        if (priceCol >= 0 && !cells[static_cast<std::size_t>(priceCol)].value().empty()) {
+        if (priceCol >= 0 && !rows.cell(priceCol).empty()) {
             auto p = number(priceCol, "a price");
             if (!p)
                 return p.error();
             if (p.value() <= 0.0)
-                return fileError(ErrorKind::Value, source, lineNo, priceCol + 1,
-                                 "expected a price greater than zero, found " + std::string(cells[static_cast<std::size_t>(priceCol)].value()));
+                return rows.error(ErrorKind::Value, priceCol,
+                                  "expected a price greater than zero, found " + std::string(rows.cell(priceCol)));
             holding.priceOverride = p.value();
         }
         if (prices && prices->assetIndex(holding.asset) < 0)
-            return fileError(ErrorKind::Reference, source, lineNo, assetCol + 1,
-                             "the asset \"" + holding.asset + "\" is not in the price history"
-                                 + (prices->sourceName.empty() ? std::string() : " (" + prices->sourceName + ")"));
+            return rows.error(ErrorKind::Reference, assetCol,
+                              "the asset \"" + holding.asset + "\" is not in the price history"
+                                  + (prices->sourceName.empty() ? std::string() : " (" + prices->sourceName + ")"));
         const auto [it, inserted] = firstLine.emplace(holding.asset, lineNo);
         if (!inserted)
-            return fileError(ErrorKind::Reference, source, lineNo, assetCol + 1,
-                             "the asset \"" + holding.asset + "\" is listed twice (first on line "
-                                 + std::to_string(it->second) + ")");
+            return rows.error(ErrorKind::Reference, assetCol,
+                              "the asset \"" + holding.asset + "\" is listed twice (first on line "
+                                  + std::to_string(it->second) + ")");
         holdings.push_back(std::move(holding));
     }
     if (holdings.empty())
-        return fileError(ErrorKind::InsufficientData, source, headerLine + 1, 0,
-                         "the file has a header but no holdings");
+        return rows.errorAtLine(ErrorKind::InsufficientData, headerLine + 1, "the file has a header but no holdings");
     return holdings;
 }
 

@@ -13,15 +13,6 @@ namespace tailwise {
 
 namespace {
 
-std::string lower(std::string_view s)
-{
-    std::string out(s);
-    for (char &c : out)
-        if (c >= 'A' && c <= 'Z')
-            c = static_cast<char>(c - 'A' + 'a');
-    return out;
-}
-
 std::string stem(const std::string &path)
 {
     const std::size_t slash = path.find_last_of("/\\");
@@ -37,88 +28,51 @@ std::string stem(const std::string &path)
 Result<StressScenario> parseScenarioCsv(std::string_view text, const std::string &source, std::string name,
                                         const PriceHistory *prices)
 {
-    constexpr std::size_t maxLine = 64 * 1024;
-    constexpr std::size_t maxRows = 100000;
     // The name (from the file's name) goes to JSON, the window and paper: the same text rules.
     if (const auto problem = checkText(name, maxNameChars))
         return fileError(ErrorKind::Format, source, 0, 0, describeTextProblem(*problem, "the scenario's name (its file name)", maxNameChars));
-    csv::LineReader lines(text);
-    std::string_view line;
-    bool haveHeader = false;
-    while (lines.next(line)) {
-        if (line.size() > maxLine)
-            return fileError(ErrorKind::Format, source, lines.lineNumber(), 0, "the line is longer than the limit of 64 KiB");
-        if (!line.empty()) {
-            haveHeader = true;
-            break;
-        }
-    }
-    if (!haveHeader)
-        return fileError(ErrorKind::Format, source, 0, 0, "the file is empty: expected a header 'asset,shock'");
-    const int headerLine = lines.lineNumber();
-    auto header = csv::splitLine(line, source, headerLine);
-    if (!header)
+    csv::HeaderedRows rows(text, source, {{"asset", "shock"}, "asset and shock", "a header 'asset,shock'", "shocks", 100000});
+    if (auto header = rows.readHeader(); !header)
         return header.error();
-    int assetCol = -1, shockCol = -1;
-    for (const auto &cell : header.value()) {
-        const std::string col = lower(cell.value());
-        int *slot = col == "asset" ? &assetCol : col == "shock" ? &shockCol : nullptr;
-        if (!slot)
-            return fileError(ErrorKind::Format, source, headerLine, cell.column,
-                             "unknown column " + csv::quoteForMessage(cell.value()) + ": expected asset and shock");
-        if (*slot >= 0)
-            return fileError(ErrorKind::Format, source, headerLine, cell.column, "the column '" + col + "' appears twice");
-        *slot = cell.column - 1;
-    }
+    const int headerLine = rows.headerLine();
+    const int assetCol = rows.column("asset"), shockCol = rows.column("shock");
     if (assetCol < 0 || shockCol < 0)
-        return fileError(ErrorKind::Format, source, headerLine, 0, "expected the columns 'asset' and 'shock'");
-    const std::size_t columns = header.value().size();
+        return rows.errorAtLine(ErrorKind::Format, headerLine, "expected the columns 'asset' and 'shock'");
 
     StressScenario scenario;
     scenario.name = std::move(name);
     std::unordered_map<std::string, int> firstLine;
-    while (lines.next(line)) {
-        const int lineNo = lines.lineNumber();
-        if (line.size() > maxLine)
-            return fileError(ErrorKind::Format, source, lineNo, 0, "the line is longer than the limit of 64 KiB");
-        if (line.empty())
-            continue;
-        if (scenario.shocks.size() >= maxRows)
-            return fileError(ErrorKind::Format, source, lineNo, 0, "more than 100000 shocks: over the limit");
-        auto split = csv::splitLine(line, source, lineNo);
-        if (!split)
-            return split.error();
-        const auto &cells = split.value();
-        if (cells.size() != columns)
-            return fileError(ErrorKind::Format, source, lineNo, static_cast<int>(std::min(cells.size(), columns)) + 1,
-                             "the row has " + std::to_string(cells.size()) + " cells, expected "
-                                 + std::to_string(columns) + " as in the header");
-        std::string asset(cells[static_cast<std::size_t>(assetCol)].value());
+    while (true) {
+        auto more = rows.next();
+        if (!more)
+            return more.error();
+        if (!more.value())
+            break;
+        const int lineNo = rows.lineNumber();
+        std::string asset(rows.cell(assetCol));
         if (asset.empty())
-            return fileError(ErrorKind::Format, source, lineNo, assetCol + 1, "expected an asset name, found an empty cell");
+            return rows.error(ErrorKind::Format, assetCol, "expected an asset name, found an empty cell");
         if (const auto problem = checkText(asset, maxNameChars))
-            return fileError(ErrorKind::Format, source, lineNo, assetCol + 1,
-                             describeTextProblem(*problem, "the asset name", maxNameChars));
+            return rows.error(ErrorKind::Format, assetCol, describeTextProblem(*problem, "the asset name", maxNameChars));
         if (prices && prices->assetIndex(asset) < 0)
-            return fileError(ErrorKind::Reference, source, lineNo, assetCol + 1,
-                             "the price history has no asset named \"" + asset + "\"");
+            return rows.error(ErrorKind::Reference, assetCol, "the price history has no asset named \"" + asset + "\"");
         if (const auto seen = firstLine.find(asset); seen != firstLine.end())
-            return fileError(ErrorKind::Reference, source, lineNo, assetCol + 1,
-                             "the asset \"" + asset + "\" is already shocked on line " + std::to_string(seen->second));
+            return rows.error(ErrorKind::Reference, assetCol,
+                              "the asset \"" + asset + "\" is already shocked on line " + std::to_string(seen->second));
         firstLine.emplace(asset, lineNo);
-        const auto shockText = cells[static_cast<std::size_t>(shockCol)].value();
+        const auto shockText = rows.cell(shockCol);
         const auto shock = csv::parseNumber(shockText);
         if (!shock)
-            return fileError(ErrorKind::Value, source, lineNo, shockCol + 1,
-                             "expected a shock as a fraction (a finite number, e.g. -0.2 for a 20% fall), found "
-                                 + csv::quoteForMessage(shockText));
+            return rows.error(ErrorKind::Value, shockCol,
+                              "expected a shock as a fraction (a finite number, e.g. -0.2 for a 20% fall), found "
+                                  + csv::quoteForMessage(shockText));
         if (*shock <= -1.0)
-            return fileError(ErrorKind::Value, source, lineNo, shockCol + 1,
-                             "expected a shock above -1 (a price cannot fall by 100% or more), found " + std::string(shockText));
+            return rows.error(ErrorKind::Value, shockCol,
+                              "expected a shock above -1 (a price cannot fall by 100% or more), found " + std::string(shockText));
         scenario.shocks.emplace_back(std::move(asset), *shock);
     }
     if (scenario.shocks.empty())
-        return fileError(ErrorKind::Format, source, headerLine, 0, "the scenario has no rows: expected asset,shock lines");
+        return rows.errorAtLine(ErrorKind::Format, headerLine, "the scenario has no rows: expected asset,shock lines");
     return scenario;
 }
 

@@ -6,6 +6,9 @@
 // against published values); the rest is the window's bookkeeping, checked as such.
 #include "chartfixture.h"
 
+#include "charts/tradeoffchartdata.h"
+#include "document/gridaxes.h"
+
 #include "document/backtestrequest.h"
 #include "document/commands.h"
 #include "document/jobrunner.h"
@@ -13,11 +16,13 @@
 #include "document/workbook.h"
 
 #include "tailwise/comparison.h"
+#include "tailwise/modelgrid.h"
 #include "tailwise/risk.h"
 
 #include <QSignalSpy>
 #include <QTest>
 
+#include <algorithm>
 #include <atomic>
 #include <thread>
 
@@ -38,7 +43,8 @@ WorkbookContents sampleContents()
     return c;
 }
 
-constexpr Part everyPart[] = {Part::Headline, Part::Overlays, Part::Comparison, Part::Backtest, Part::Stress, Part::WhatIf};
+constexpr Part everyPart[] = {Part::Headline, Part::Overlays, Part::Comparison, Part::Backtest,
+                              Part::Stress,   Part::WhatIf,   Part::Grid};
 
 const char *partName(Part p)
 {
@@ -49,6 +55,7 @@ const char *partName(Part p)
     case Part::Backtest: return "backtest";
     case Part::Stress: return "stress";
     case Part::WhatIf: return "what-if";
+    case Part::Grid: return "grid";
     }
     return "?";
 }
@@ -57,6 +64,7 @@ const char *partName(Part p)
 void computeAll(ResultsStore &store)
 {
     store.setWhatIfTrades({Trade{"LARK_ENERGY", 100.0}});
+    store.setGridConfidences(tradeoffGridConfidences());
     for (const Part p : everyPart)
         store.computeNow(p);
 }
@@ -123,8 +131,9 @@ private slots:
         QTest::newRow("scenarios") << "scenarios" << "stress";
         QTest::newRow("backtest window") << "window" << "backtest";
         QTest::newRow("what-if proposal") << "trades" << "what-if";
-        QTest::newRow("holding") << "holding" << "headline,overlays,comparison,backtest,stress,what-if";
-        QTest::newRow("assumptions") << "confidence" << "headline,overlays,comparison,backtest,stress,what-if";
+        QTest::newRow("grid confidences") << "gridConfidences" << "grid";
+        QTest::newRow("holding") << "holding" << "headline,overlays,comparison,backtest,stress,what-if,grid";
+        QTest::newRow("assumptions") << "confidence" << "headline,overlays,comparison,backtest,stress,what-if,grid";
     }
     void anInputMarksExactlyItsParts()
     {
@@ -147,6 +156,8 @@ private slots:
             auto scenarios = wb.scenarios();
             scenarios.push_back({"Bonds -5%", {{"ASHGROVE_BOND_FUND", -0.05}}});
             edit::setScenarios(wb, scenarios, QStringLiteral("Add"));
+        } else if (edit == QLatin1String("gridConfidences")) {
+            store.setGridConfidences({0.95, 0.99});
         } else if (edit == QLatin1String("trades")) {
             store.setWhatIfTrades({Trade{"LARK_ENERGY", 200.0}});
         } else if (edit == QLatin1String("holding")) {
@@ -257,6 +268,113 @@ private slots:
         store.setWatched(Part::Backtest, true);
         QVERIFY(store.isRunning(Part::Backtest));
         QTRY_COMPARE_WITH_TIMEOUT(store.state(Part::Backtest), PartState::Ready, 30000);
+    }
+
+    // The grid part's cells are core's modelRiskGrid of the headline's report, exactly, under
+    // every model (core's tests check modelRiskGrid against published values); the tab's pictures
+    // built from it are those built on the spot.
+    void gridIsCoresModelRiskGrid_data()
+    {
+        QTest::addColumn<int>("model");
+        QTest::newRow("normal") << static_cast<int>(RiskModel::Normal);
+        QTest::newRow("student-t") << static_cast<int>(RiskModel::StudentT);
+        QTest::newRow("cornish-fisher") << static_cast<int>(RiskModel::CornishFisher);
+        QTest::newRow("historical") << static_cast<int>(RiskModel::Historical);
+        QTest::newRow("monte-carlo") << static_cast<int>(RiskModel::MonteCarlo);
+    }
+    void gridIsCoresModelRiskGrid()
+    {
+        QFETCH(int, model);
+        Workbook wb;
+        WorkbookContents c = sampleContents();
+        c.assumptions.model = static_cast<RiskModel>(model);
+        c.assumptions.simulations = 20000;
+        wb.resetContents(c, {});
+        ResultsStore &store = wb.results();
+        store.setGridConfidences(tradeoffGridConfidences());
+        store.computeNow(Part::Grid); // computes the headline first
+        QCOMPARE(store.state(Part::Headline), PartState::Ready);
+        QCOMPARE(store.state(Part::Grid), PartState::Ready);
+        QCOMPARE(store.status(Part::Grid).generation, store.inputGeneration(Part::Grid));
+        const GridRun &run = store.grid();
+        QVERIFY(run.report && run.grid && run.grid->ok());
+        const auto core = modelRiskGrid(*store.report(), gridHorizons(*store.report()), tradeoffGridConfidences());
+        QVERIFY(core.ok());
+        const RiskGrid &g = run.grid->value();
+        QCOMPARE(g.horizons, core.value().horizons);
+        QCOMPARE(g.confidences, core.value().confidences);
+        QCOMPARE(g.var, core.value().var); // exactly: the same function of the same report
+        QCOMPARE(g.es, core.value().es);
+        // The headline is the grid's cell at its own horizon and confidence.
+        const auto h = std::find(g.horizons.begin(), g.horizons.end(), wb.assumptions().horizonDays);
+        QVERIFY(h != g.horizons.end());
+        const TradeoffChartData fromStore = buildTradeoffChartData(*run.report, *run.grid);
+        const TradeoffChartData onTheSpot = buildTradeoffChartData(*store.report());
+        QVERIFY(fromStore.valid);
+        QCOMPARE(fromStore.map.var, onTheSpot.map.var);
+        QCOMPARE(fromStore.byHorizon.var, onTheSpot.byHorizon.var);
+        QCOMPARE(fromStore.byConfidence.var, onTheSpot.byConfidence.var);
+        QCOMPARE(fromStore.contours.size(), onTheSpot.contours.size());
+        // A grid of other columns than the pictures ask for draws nothing rather than wrong cells.
+        store.setGridConfidences({0.95, 0.99});
+        store.computeNow(Part::Grid);
+        QVERIFY(!buildTradeoffChartData(*store.grid().report, *store.grid().grid).valid);
+    }
+
+    // Watched, the grid runs in the background after the headline; an edit meanwhile drops it;
+    // a stop keeps the last figures whole, marked out of date; nobody watching, it costs nothing.
+    void gridRunsInTheBackground()
+    {
+        Workbook wb;
+        wb.resetContents(sampleContents(), {});
+        ResultsStore &store = wb.results();
+        store.setGridConfidences(tradeoffGridConfidences());
+        QSignalSpy changed(&store, &ResultsStore::gridChanged);
+        // Not watched: edits leave it alone.
+        Holding h = wb.holdings().front();
+        h.quantity += 1.0;
+        edit::setHolding(wb, 0, h, QStringLiteral("+1"));
+        QCoreApplication::processEvents();
+        QVERIFY(!store.isRunning(Part::Grid));
+        QVERIFY(!store.runner().isRunning(static_cast<int>(Part::Grid)));
+        QVERIFY(!store.grid().grid);
+
+        store.setWatched(Part::Grid, true);
+        QVERIFY(store.isRunning(Part::Grid));
+        QTRY_COMPARE_WITH_TIMEOUT(store.state(Part::Grid), PartState::Ready, 30000);
+        const quint64 first = store.status(Part::Grid).generation;
+        const double firstVar = store.grid().grid->value().var.back();
+        QCOMPARE(store.grid().report->figures.var, store.report()->figures.var);
+
+        // An edit while it runs: the running job's result is dropped, the new inputs' one arrives.
+        h.quantity *= 2.0;
+        edit::setHolding(wb, 0, h, QStringLiteral("Double"));
+        QTRY_VERIFY_WITH_TIMEOUT(store.isRunning(Part::Grid), 5000);
+        h.quantity *= 2.0;
+        edit::setHolding(wb, 0, h, QStringLiteral("Double again"));
+        QCOMPARE(store.status(Part::Grid).generation, first); // nothing of the middle edit yet
+        QTRY_COMPARE_WITH_TIMEOUT(store.state(Part::Grid), PartState::Ready, 30000);
+        QCOMPARE(store.status(Part::Grid).generation, store.inputGeneration(Part::Grid));
+        const auto core = modelRiskGrid(wb.results().report().value(), gridHorizons(*store.report()), tradeoffGridConfidences());
+        QCOMPARE(store.grid().grid->value().var, core.value().var);
+        QVERIFY(store.grid().grid->value().var.back() != firstVar);
+
+        // Stopped while it runs: the figures held are the last complete ones, out of date.
+        const quint64 held = store.status(Part::Grid).generation;
+        const std::vector<double> heldVar = store.grid().grid->value().var;
+        store.setWatched(Part::Grid, false);
+        h.quantity *= 0.5;
+        edit::setHolding(wb, 0, h, QStringLiteral("Half"));
+        store.request(Part::Grid);
+        QTRY_VERIFY_WITH_TIMEOUT(store.isRunning(Part::Grid), 5000);
+        store.cancel(Part::Grid);
+        QCOMPARE(store.state(Part::Grid), PartState::OutOfDate);
+        store.runner().waitForDone();
+        QCoreApplication::processEvents();
+        QCOMPARE(store.state(Part::Grid), PartState::OutOfDate);
+        QCOMPARE(store.status(Part::Grid).generation, held);
+        QCOMPARE(store.grid().grid->value().var, heldVar);
+        QVERIFY(!changed.isEmpty());
     }
 
     // The runner: a superseded job's result is never delivered; progress comes in whole percents.

@@ -1,6 +1,7 @@
 #include "charts/tradeoffchartdata.h"
 
 #include "charts/chartstyle.h"
+#include "document/gridaxes.h"
 #include "text/assumptionlabels.h"
 
 #include "tailwise/modelgrid.h"
@@ -55,7 +56,44 @@ TradeoffPick pickOnMap(double x, double y, int daysPerYear, const TradeoffOption
     return pick;
 }
 
+namespace {
+
+// The map's rows: evenly spaced in the tail scale, the ends set exactly so the range reads
+// 90% … 99.9% and not 99.899999…%.
+std::vector<double> mapConfidences(const TradeoffOptions &options)
+{
+    const int steps = std::max(2, options.confidenceSteps);
+    const double t0 = confidenceToTailScale(options.minConfidence);
+    const double t1 = confidenceToTailScale(options.maxConfidence);
+    std::vector<double> confidences;
+    for (int k = 0; k < steps; ++k) {
+        const double t = t0 + (t1 - t0) * k / (steps - 1);
+        confidences.push_back(k == 0 ? options.minConfidence : k == steps - 1 ? options.maxConfidence : tailScaleToConfidence(t));
+    }
+    return confidences;
+}
+
+} // namespace
+
+std::vector<double> tradeoffGridConfidences(const TradeoffOptions &options)
+{
+    std::vector<double> all = mapConfidences(options);
+    all.insert(all.end(), options.lineConfidences.begin(), options.lineConfidences.end());
+    return all;
+}
+
+Result<RiskGrid> computeTradeoffGrid(const RiskReport &report, const TradeoffOptions &options)
+{
+    return modelRiskGrid(report, gridHorizons(report), tradeoffGridConfidences(options));
+}
+
 TradeoffChartData buildTradeoffChartData(const RiskReport &report, const TradeoffOptions &options)
+{
+    return buildTradeoffChartData(report, computeTradeoffGrid(report, options), options);
+}
+
+TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Result<RiskGrid> &all,
+                                         const TradeoffOptions &options)
 {
     TradeoffChartData d;
     const Assumptions &a = report.assumptions;
@@ -81,9 +119,7 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
         d.note += QLatin1Char(' ')
                 + tr("The P&L has no spread over this window: VaR is the expected loss alone at every confidence.");
 
-    int lastHorizon = d.daysPerYear;
-    if (model == RiskModel::Historical && a.historicalHorizon == HistoricalHorizon::Overlapping)
-        lastHorizon = std::max(1, std::min(lastHorizon, report.windowReturns - 1));
+    const int lastHorizon = gridLastHorizon(report);
     std::vector<int> horizons(static_cast<std::size_t>(lastHorizon));
     for (int h = 1; h <= lastHorizon; ++h)
         horizons[static_cast<std::size_t>(h - 1)] = h;
@@ -91,25 +127,19 @@ TradeoffChartData buildTradeoffChartData(const RiskReport &report, const Tradeof
     const int steps = std::max(2, options.confidenceSteps);
     const double t0 = confidenceToTailScale(options.minConfidence);
     const double t1 = confidenceToTailScale(options.maxConfidence);
-    std::vector<double> confidences;
     d.mapTail.clear();
-    for (int k = 0; k < steps; ++k) {
-        const double t = t0 + (t1 - t0) * k / (steps - 1);
-        d.mapTail.push_back(t);
-        // The ends are set exactly, so the range reads 90% … 99.9% and not 99.899999…%.
-        confidences.push_back(k == 0 ? options.minConfidence : k == steps - 1 ? options.maxConfidence : tailScaleToConfidence(t));
-    }
+    for (int k = 0; k < steps; ++k)
+        d.mapTail.push_back(t0 + (t1 - t0) * k / (steps - 1));
+    const std::vector<double> confidences = mapConfidences(options);
 
     // One grid over every horizon and every confidence the three pictures need (so Monte Carlo
-    // draws once), then each picture is a slice of it: a cell depends on its (H, C) alone.
-    std::vector<double> allConfidences = confidences;
-    allConfidences.insert(allConfidences.end(), options.lineConfidences.begin(), options.lineConfidences.end());
-    std::vector<int> allHorizons = horizons;
+    // draws once), then each picture is a slice of it: a cell depends on its (H, C) alone. Its
+    // rows are gridHorizons(report), its columns tradeoffGridConfidences(options).
     const bool currentInside = d.horizonDays >= 1 && d.horizonDays <= lastHorizon;
-    if (!currentInside)
-        allHorizons.push_back(d.horizonDays);
-    auto all = modelRiskGrid(report, allHorizons, allConfidences);
-    bool finite = all.ok();
+    const std::size_t columns = confidences.size() + options.lineConfidences.size();
+    bool finite = all.ok() && all.value().horizons == gridHorizons(report) && all.value().confidences.size() == columns
+                  && all.value().var.size() == all.value().horizons.size() * columns
+                  && all.value().es.size() == all.value().var.size();
     if (finite)
         for (std::size_t k = 0; k < all.value().var.size(); ++k)
             finite = finite && std::isfinite(all.value().var[k]) && std::isfinite(all.value().es[k]);

@@ -16,6 +16,7 @@
 #include "charts/contours.h"
 
 #include "tailwise/grid.h"
+#include "tailwise/result.h"
 #include "tailwise/risk.h"
 
 #include <QString>
@@ -69,6 +70,17 @@ struct TradeoffChartData {
     QString horizonLabel, confidenceLabel, varLabel;
 };
 
+// The grid the three pictures are slices of: rows gridHorizons(report) (document/gridaxes.h),
+// columns tradeoffGridConfidences(options) — the map's confidences, then the line confidences —
+// every cell core's modelRiskGrid (modelgrid.h) under the report's model.
+std::vector<double> tradeoffGridConfidences(const TradeoffOptions &options = {});
+tailwise::Result<tailwise::RiskGrid> computeTradeoffGrid(const RiskReport &report, const TradeoffOptions &options = {});
+
+// The pictures from a grid already computed (the results store's Grid part computes it in the
+// background); a grid of other rows or columns than the report and options ask for gives no figures.
+TradeoffChartData buildTradeoffChartData(const RiskReport &report, const tailwise::Result<tailwise::RiskGrid> &grid,
+                                         const TradeoffOptions &options = {});
+// The same, computing the grid on the calling thread.
 TradeoffChartData buildTradeoffChartData(const RiskReport &report, const TradeoffOptions &options = {});
 
 // The map's confidence axis: t = −log10(1 − C) and back.

@@ -1,7 +1,10 @@
 #include "document/resultsstore.h"
 
 #include "document/backtestrequest.h"
+#include "document/gridaxes.h"
 #include "document/workbook.h"
+
+#include "tailwise/modelgrid.h"
 
 #include <Eigen/Core>
 
@@ -13,8 +16,8 @@ namespace tailwise::ui {
 
 namespace {
 
-constexpr std::initializer_list<Part> everyPart{Part::Headline, Part::Overlays, Part::Comparison,
-                                                Part::Backtest, Part::Stress,   Part::WhatIf};
+constexpr std::initializer_list<Part> everyPart{Part::Headline, Part::Overlays, Part::Comparison, Part::Backtest,
+                                                Part::Stress,   Part::WhatIf,   Part::Grid};
 
 // Closed-form and historical models take well under a frame; simulation does not.
 bool heavy(const Assumptions &assumptions) { return assumptions.model == RiskModel::MonteCarlo; }
@@ -60,6 +63,8 @@ ResultsStore::ResultsStore(Workbook &workbook) : QObject(&workbook), m_workbook(
         m_stress.reset();
         m_trades.clear();
         m_whatIf.reset();
+        m_grid = GridRun{};
+        m_gridAwaitsHeadline = false;
         for (const Part p : everyPart) {
             m_status[index(p)] = PartStatus{};
             emitChanged(p);
@@ -68,6 +73,12 @@ ResultsStore::ResultsStore(Workbook &workbook) : QObject(&workbook), m_workbook(
     connect(&m_workbook, &Workbook::inputsChanged, this, [this] { inputsChanged(everyPart); });
     connect(&m_workbook, &Workbook::scenariosChanged, this, [this] { inputsChanged({Part::Stress}); });
     connect(&m_workbook, &Workbook::backtestSettingsChanged, this, &ResultsStore::backtestSettingsChanged);
+    // The grid rescales the headline: it starts when the headline of its inputs is in.
+    connect(this, &ResultsStore::headlineChanged, this, &ResultsStore::headlineSettled);
+    connect(this, &ResultsStore::statusChanged, this, [this](Part p) {
+        if (p == Part::Headline)
+            headlineSettled();
+    });
 }
 
 ResultsStore::~ResultsStore()
@@ -111,6 +122,8 @@ void ResultsStore::markOutOfDate(Part part)
     if (part == Part::Headline)
         m_watched[i] = true; // the headline is always computed (a stop lasts until an input changes)
     ++m_inputs[i];
+    if (part == Part::Grid)
+        m_gridAwaitsHeadline = false;
     const bool wasRunning = m_status[i].state == PartState::Running;
     m_runner.stop(static_cast<int>(part));
     if (part == Part::Backtest && wasRunning)
@@ -120,6 +133,8 @@ void ResultsStore::markOutOfDate(Part part)
         emit headlineRunning(false);
     if (part == Part::Backtest && wasRunning)
         emit backtestChanged();
+    if (part == Part::Grid && wasRunning)
+        emit gridChanged(); // the figures held are now marked out of date
     if (m_watched[i])
         m_timers[i].start();
 }
@@ -155,6 +170,8 @@ void ResultsStore::cancel(Part part)
     if (m_status[i].state != PartState::Running)
         return;
     m_runner.stop(static_cast<int>(part));
+    if (part == Part::Grid)
+        m_gridAwaitsHeadline = false;
     if (part == Part::Backtest) {
         m_backtest = m_backtestComplete; // the previous complete run, never a part of this one
         emit backtestChanged();
@@ -166,6 +183,8 @@ void ResultsStore::cancel(Part part)
         emit headlineRunning(false);
         emit headlineChanged(); // the figures held are now marked out of date
     }
+    if (part == Part::Grid)
+        emit gridChanged();
 }
 
 void ResultsStore::setStatus(Part part, PartState state, const QString &message)
@@ -189,6 +208,7 @@ void ResultsStore::emitChanged(Part part)
     case Part::Backtest: emit backtestChanged(); break;
     case Part::Stress: emit stressChanged(); break;
     case Part::WhatIf: emit whatIfChanged(); break;
+    case Part::Grid: emit gridChanged(); break;
     }
 }
 
@@ -202,6 +222,7 @@ void ResultsStore::start(Part part, bool inlineAlways)
     case Part::Backtest: startBacktest(inlineAlways); break;
     case Part::Stress: startStress(inlineAlways); break;
     case Part::WhatIf: startWhatIf(inlineAlways); break;
+    case Part::Grid: startGrid(inlineAlways); break;
     }
 }
 
@@ -492,6 +513,88 @@ void ResultsStore::startWhatIf(bool inlineAlways)
             emit whatIfChanged();
         },
         TAILWISE_PROGRESS(Part::WhatIf));
+}
+
+void ResultsStore::setGridConfidences(std::vector<double> confidences)
+{
+    if (confidences == m_gridConfidences)
+        return;
+    m_gridConfidences = std::move(confidences);
+    markOutOfDate(Part::Grid);
+}
+
+void ResultsStore::headlineSettled()
+{
+    if (!m_gridAwaitsHeadline)
+        return;
+    const PartStatus &headline = status(Part::Headline);
+    if (headline.state == PartState::Running)
+        return;
+    const bool current = (headline.state == PartState::Ready || headline.state == PartState::Failed)
+                         && headline.generation == inputGeneration(Part::Headline);
+    if (current) {
+        m_gridAwaitsHeadline = false;
+        start(Part::Grid, false);
+        return;
+    }
+    if (headline.state == PartState::OutOfDate && !isWatched(Part::Headline)) {
+        // The headline was stopped: so is the grid waiting for it (its figures stay, out of date).
+        m_gridAwaitsHeadline = false;
+        setStatus(Part::Grid, m_status[index(Part::Grid)].generation == 0 ? PartState::Pending : PartState::OutOfDate);
+        emit gridChanged();
+    }
+}
+
+void ResultsStore::startGrid(bool inlineAlways)
+{
+    const Part part = Part::Grid;
+    const quint64 generation = inputGeneration(part);
+    const PartStatus &headline = status(Part::Headline);
+    const bool headlineCurrent = headline.generation == inputGeneration(Part::Headline)
+                                 && (headline.state == PartState::Ready || headline.state == PartState::Failed);
+    if (!headlineCurrent) {
+        if (inlineAlways) {
+            computeNow(Part::Headline);
+        } else {
+            // Waits for the headline of the same inputs (computed first: the grid rescales it).
+            m_runner.stop(static_cast<int>(part));
+            m_gridAwaitsHeadline = true;
+            setStatus(part, PartState::Running);
+            emit gridChanged();
+            request(Part::Headline);
+            return;
+        }
+    }
+    m_gridAwaitsHeadline = false;
+    if (!m_report || state(Part::Headline) != PartState::Ready) {
+        m_runner.stop(static_cast<int>(part));
+        m_grid = GridRun{generation, std::nullopt, std::nullopt};
+        m_status[index(part)].generation = generation;
+        setStatus(part, PartState::Failed,
+                  m_headlineError ? QString::fromStdString(m_headlineError->message) : QString());
+        emit gridChanged();
+        return;
+    }
+    auto report = std::make_shared<RiskReport>(*m_report);
+    auto confidences = std::make_shared<std::vector<double>>(m_gridConfidences);
+    setStatus(part, PartState::Running);
+    emit gridChanged();
+    m_runner.start<RiskGrid>(
+        static_cast<int>(part), where(!inlineAlways),
+        [report, confidences](const RunControl &control) {
+            return modelRiskGrid(*report, gridHorizons(*report), *confidences, control);
+        },
+        [this, generation, report](Result<RiskGrid> result) {
+            if (generation != inputGeneration(Part::Grid))
+                return; // computed from inputs that have changed since
+            const bool ok = result.ok();
+            const QString message = ok ? QString() : QString::fromStdString(result.error().message);
+            m_grid = GridRun{generation, *report, std::move(result)};
+            m_status[index(Part::Grid)].generation = generation;
+            setStatus(Part::Grid, ok ? PartState::Ready : PartState::Failed, message);
+            emit gridChanged();
+        },
+        TAILWISE_PROGRESS(Part::Grid));
 }
 
 #undef TAILWISE_PROGRESS

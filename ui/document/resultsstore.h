@@ -2,8 +2,12 @@
 //
 // The workbook owns one (Workbook::results()). Each part is one computed result:
 //   Headline    computeRisk at the workbook's assumptions (risk.h): the headline, the holdings'
-//               contributions, the loss tail and the horizon × confidence map (the map's grid is a
-//               closed-form rescaling of this report, built by its chart's data builder);
+//               contributions and the loss tail;
+//   Grid        modelRiskGrid (modelgrid.h) of the headline's report over gridHorizons(report)
+//               (gridaxes.h) × the confidences its view asks for (setGridConfidences): the
+//               horizon-and-confidence tab's three pictures are slices of it. It waits for the
+//               headline of the same inputs, then runs in the background (Monte Carlo draws
+//               afresh for it);
 //   Overlays    the same at the other closed-density models (Student-t, Cornish–Fisher), for the
 //               loss tail's "other models' curves";
 //   Comparison  compareModels (comparison.h);
@@ -14,6 +18,7 @@
 // message, out of date), and the input generation its figures came from. A part's input
 // generation counts the changes of what it depends on:
 //   prices, holdings, assumptions, New/Open → every part;
+//   the grid's confidences → Grid;
 //   the scenarios → Stress; the backtest's window or models → Backtest; the proposal → WhatIf;
 //   the title, the currency and the backtest's test size → none (they only label or read figures).
 // A change marks the dependent parts out of date at once (their last figures stay, marked so).
@@ -31,6 +36,7 @@
 #include "tailwise/backtest.h"
 #include "tailwise/comparison.h"
 #include "tailwise/estimatecache.h"
+#include "tailwise/grid.h"
 #include "tailwise/risk.h"
 #include "tailwise/stress.h"
 #include "tailwise/whatif.h"
@@ -47,8 +53,8 @@ namespace tailwise::ui {
 
 class Workbook;
 
-enum class Part { Headline, Overlays, Comparison, Backtest, Stress, WhatIf };
-inline constexpr int partCount = 6;
+enum class Part { Headline, Overlays, Comparison, Backtest, Stress, WhatIf, Grid };
+inline constexpr int partCount = 7;
 
 enum class PartState {
     Pending,   // never computed
@@ -77,6 +83,14 @@ struct BacktestRun {
     BacktestSettings settings;
     std::vector<BacktestModelRun> models;   // in the settings' order; models[0] is the one drawn
     std::optional<tailwise::Error> problem; // refused before any model ran (no prices, no holdings)
+};
+
+// The grid part's figures: the grid and the headline report it was computed from (so a view
+// draws the two together even while a newer headline is in).
+struct GridRun {
+    quint64 generation = 0;
+    std::optional<tailwise::RiskReport> report;           // the headline the grid rescales
+    std::optional<tailwise::Result<tailwise::RiskGrid>> grid; // rows gridHorizons(*report), columns as asked
 };
 
 class ResultsStore : public QObject {
@@ -119,6 +133,12 @@ public:
     const BacktestRun &backtest() const { return m_backtest; }
     const std::optional<tailwise::Result<std::vector<tailwise::StressOutcome>>> &stress() const { return m_stress; }
     const std::optional<tailwise::Result<tailwise::WhatIf>> &whatIf() const { return m_whatIf; }
+    const GridRun &grid() const { return m_grid; }
+
+    // The grid's columns (the grid part's own input, set by its view: charts/tradeoffchartdata.h's
+    // tradeoffGridConfidences). A change marks the grid out of date.
+    const std::vector<double> &gridConfidences() const { return m_gridConfidences; }
+    void setGridConfidences(std::vector<double> confidences);
 
     // The what-if proposal (the what-if part's own input; not part of the workbook).
     const std::vector<tailwise::Trade> &whatIfTrades() const { return m_trades; }
@@ -136,6 +156,7 @@ signals:
     void backtestChanged();
     void stressChanged();
     void whatIfChanged();
+    void gridChanged();
     // The headline runs in the background (Monte Carlo) or stopped doing so.
     void headlineRunning(bool running);
 
@@ -156,6 +177,8 @@ private:
     void runBacktestModel(std::size_t i, quint64 generation, bool inlineAlways);
     void startStress(bool inlineAlways);
     void startWhatIf(bool inlineAlways);
+    void startGrid(bool inlineAlways);
+    void headlineSettled();
     void backtestSettingsChanged();
 
     Workbook &m_workbook;
@@ -180,6 +203,9 @@ private:
     std::optional<tailwise::Result<std::vector<tailwise::StressOutcome>>> m_stress;
     std::vector<tailwise::Trade> m_trades;
     std::optional<tailwise::Result<tailwise::WhatIf>> m_whatIf;
+    std::vector<double> m_gridConfidences;
+    GridRun m_grid;
+    bool m_gridAwaitsHeadline = false; // the grid is wanted and starts once the headline is current
 };
 
 } // namespace tailwise::ui

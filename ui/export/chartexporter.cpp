@@ -3,6 +3,7 @@
 #include "document/resultsstore.h"
 #include "document/savefile.h"
 #include "document/workbook.h"
+#include "charts/tradeoffchartdata.h"
 #include "export/captions.h"
 #include "export/chartclipboard.h"
 #include "export/chartexportdialog.h"
@@ -41,8 +42,22 @@ std::optional<WorkbookResults> ChartExporter::currentResults() const
     if (store.state(Part::Comparison) == PartState::Ready && store.comparison() && *store.comparison()
         && !store.comparison()->value().empty())
         models = *store.comparison();
+    // The horizon-and-confidence grid: the store's, computed now through its runner when the
+    // headline is current but the grid is not (the export cannot wait for it); else computed
+    // from the report held, as the chart is drawn from it.
+    std::optional<Result<RiskGrid>> grid;
+    store.setGridConfidences(tradeoffGridConfidences(TradeoffOptions{}));
+    const bool headlineCurrent = store.isReady(Part::Headline)
+                                 && store.status(Part::Headline).generation == store.inputGeneration(Part::Headline);
+    const auto gridCurrent = [&store] {
+        return store.isReady(Part::Grid) && store.status(Part::Grid).generation == store.inputGeneration(Part::Grid);
+    };
+    if (headlineCurrent && !gridCurrent())
+        store.computeNow(Part::Grid);
+    if (headlineCurrent && gridCurrent() && store.grid().grid)
+        grid = *store.grid().grid;
     WorkbookResults results = assembleWorkbookResults(m_workbook.title(), *report, m_workbook.backtestSettings(), backtest,
-                                                      models, m_workbook.currency());
+                                                      models, m_workbook.currency(), std::move(grid));
     if (!models)
         results.modelsProblem = tr("the model comparison is being computed; export again in a moment.");
     if (!results.backtestChart && !backtest)

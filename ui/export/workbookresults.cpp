@@ -21,7 +21,9 @@ void buildChartData(WorkbookResults &r)
     r.lossTail = buildLossTailChartData(r.report, lossTail);
     TradeoffOptions tradeoff;
     tradeoff.currency = r.currency;
-    r.tradeoff = buildTradeoffChartData(r.report, tradeoff);
+    if (!r.tradeoffGrid)
+        r.tradeoffGrid = computeTradeoffGrid(r.report, tradeoff);
+    r.tradeoff = buildTradeoffChartData(r.report, *r.tradeoffGrid, tradeoff);
     ContributionsOptions contributions;
     contributions.currency = r.currency;
     r.contributions = buildContributionsChartData(r.report, contributions);
@@ -44,9 +46,10 @@ QString riskModelTitle(RiskModel model)
 WorkbookResults assembleWorkbookResults(const QString &title, const RiskReport &report, const BacktestSettings &settings,
                                         const std::optional<Result<BacktestResult>> &backtest,
                                         const std::optional<Result<std::vector<ModelRow>>> &models,
-                                        const QString &currency)
+                                        const QString &currency, std::optional<Result<RiskGrid>> tradeoffGrid)
 {
     WorkbookResults r;
+    r.tradeoffGrid = std::move(tradeoffGrid);
     r.title = title;
     r.currency = currency;
     r.report = report;

@@ -45,6 +45,10 @@ struct WorkbookResults {
     std::optional<std::vector<tailwise::ModelRow>> models; // compareModels rows
     QString modelsProblem;
 
+    // The horizon-and-confidence grid the tradeoff chart slices (computeTradeoffGrid of report):
+    // kept so that a relabel does not compute it again.
+    std::optional<tailwise::Result<tailwise::RiskGrid>> tradeoffGrid;
+
     // The charts' numbers, from their builders (print defaults: money axis, history bars on).
     LossTailChartData lossTail;
     TradeoffChartData tradeoff;
@@ -58,12 +62,15 @@ struct WorkbookResults {
 tailwise::Result<WorkbookResults> computeWorkbookResults(const WorkbookContents &contents);
 
 // The same from parts already computed (the window has them from its own background jobs):
-// `backtest` and `models` unset mean "not computed yet" and leave a problem saying so.
+// `backtest` and `models` unset mean "not computed yet" and leave a problem saying so;
+// `tradeoffGrid`, when given, is computeTradeoffGrid(report) (the store's Grid part), else it is
+// computed here.
 WorkbookResults assembleWorkbookResults(const QString &title, const tailwise::RiskReport &report,
                                         const BacktestSettings &backtestSettings,
                                         const std::optional<tailwise::Result<tailwise::BacktestResult>> &backtest,
                                         const std::optional<tailwise::Result<std::vector<tailwise::ModelRow>>> &models,
-                                        const QString &currency = {});
+                                        const QString &currency = {},
+                                        std::optional<tailwise::Result<tailwise::RiskGrid>> tradeoffGrid = {});
 
 // The same results with every chart's data rebuilt to name `currency` on its money axes (an
 // export told another currency than the workbook's). Cheap: the builders only arrange numbers.

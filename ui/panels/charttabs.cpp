@@ -17,12 +17,27 @@
 #include <QHBoxLayout>
 #include <QLabel>
 #include <QLocale>
+#include <QProgressBar>
+#include <QPushButton>
 #include <QStackedWidget>
 #include <QTabWidget>
 #include <QToolButton>
 #include <QVBoxLayout>
 
+#include <cmath>
+
 namespace tailwise::ui {
+
+namespace {
+
+TradeoffOptions tradeoffOptions(const QString &currency)
+{
+    TradeoffOptions o;
+    o.currency = currency;
+    return o;
+}
+
+} // namespace
 
 ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_workbook(workbook)
 {
@@ -87,12 +102,70 @@ ChartTabs::ChartTabs(Workbook &workbook, QWidget *parent) : QWidget(parent), m_w
     m_stack = new QStackedWidget(this);
     m_stack->addWidget(m_empty);
     m_stack->addWidget(m_tabs);
+
+    // The horizon-and-confidence grid runs in the background: its progress and a way to stop it.
+    m_gridRow = new QWidget(this);
+    m_gridRow->setObjectName(QStringLiteral("gridRun"));
+    m_gridStatus = new QLabel(m_gridRow);
+    m_gridProgress = new QProgressBar(m_gridRow);
+    m_gridProgress->setRange(0, 100);
+    m_gridProgress->setMaximumWidth(160);
+    m_gridStop = new QPushButton(tr("Stop"), m_gridRow);
+    m_gridStop->setToolTip(tr("Stop computing the figures across horizons and confidences. The last ones stay, marked "
+                              "out of date."));
+    m_gridAgain = new QPushButton(tr("Compute again"), m_gridRow);
+    auto *gridLayout = new QHBoxLayout(m_gridRow);
+    gridLayout->setContentsMargins(4, 2, 4, 2);
+    gridLayout->addWidget(m_gridStatus);
+    gridLayout->addWidget(m_gridProgress);
+    gridLayout->addWidget(m_gridStop);
+    gridLayout->addWidget(m_gridAgain);
+    gridLayout->addStretch();
+    m_gridRow->hide();
+
     auto *layout = new QVBoxLayout(this);
     layout->setContentsMargins(0, 0, 0, 0);
     layout->addWidget(m_stack);
+    layout->addWidget(m_gridRow);
 
     ResultsStore &store = workbook.results();
+    store.setGridConfidences(tradeoffGridConfidences(TradeoffOptions{}));
     connect(&store, &ResultsStore::headlineChanged, this, &ChartTabs::refresh);
+    connect(&store, &ResultsStore::gridChanged, this, [this] {
+        m_stale[1] = true;
+        refreshTab(m_tabs->currentIndex());
+        refreshGridStatus();
+    });
+    connect(&store, &ResultsStore::statusChanged, this, [this](Part part) {
+        if (part == Part::Grid)
+            refreshGridStatus();
+    });
+    connect(&store, &ResultsStore::progress, this, [this](Part part, double f) {
+        if (part == Part::Grid)
+            m_gridProgress->setValue(static_cast<int>(std::lround(f * 100.0)));
+    });
+    connect(m_gridStop, &QPushButton::clicked, this, [this] {
+        m_gridStopped = true;
+        m_workbook.results().setWatched(Part::Grid, false);
+        m_workbook.results().cancel(Part::Grid);
+        refreshGridStatus();
+    });
+    connect(m_gridAgain, &QPushButton::clicked, this, [this] {
+        m_gridStopped = false;
+        watchGrid();
+        m_workbook.results().request(Part::Grid);
+        refreshGridStatus();
+    });
+    // A stopped grid waits for "Compute again" or a change of what it computes from.
+    connect(&workbook, &Workbook::inputsChanged, this, [this] {
+        if (!m_gridStopped)
+            return;
+        m_gridStopped = false;
+        watchGrid();
+        refreshGridStatus();
+    });
+    connect(m_tabs, &QTabWidget::currentChanged, this, &ChartTabs::watchGrid);
+    connect(m_tabs, &QTabWidget::currentChanged, this, &ChartTabs::refreshGridStatus);
     connect(&store, &ResultsStore::overlaysChanged, this, [this] {
         if (m_overlay->isChecked())
             refreshLossTail();
@@ -175,6 +248,39 @@ void ChartTabs::watchOverlays()
     m_workbook.results().setWatched(Part::Overlays, m_overlay->isChecked() && m_tabs->currentIndex() == 0);
 }
 
+void ChartTabs::watchGrid()
+{
+    // The grid is computed (in the background) only while its tab is shown, or for an export.
+    m_workbook.results().setWatched(Part::Grid, m_tabs->currentWidget() == m_tradeoff && !m_gridStopped);
+}
+
+void ChartTabs::refreshGridStatus()
+{
+    const PartStatus &status = m_workbook.results().status(Part::Grid);
+    const bool onView = m_stack->currentWidget() == m_tabs && m_tabs->currentWidget() == m_tradeoff;
+    const bool running = status.state == PartState::Running;
+    const bool stopped = m_gridStopped && status.state != PartState::Ready && status.state != PartState::Running;
+    m_gridProgress->setVisible(running);
+    m_gridStop->setVisible(running);
+    m_gridAgain->setVisible(stopped);
+    if (running)
+        m_gridProgress->setValue(static_cast<int>(std::lround(status.progress * 100.0)));
+    m_gridStatus->setText(running ? tr("Computing VaR across horizons and confidences…")
+                          : stopped ? tr("Stopped: the figures drawn are of earlier inputs.")
+                                    : QString());
+    m_gridRow->setVisible(onView && (running || stopped));
+}
+
+void ChartTabs::refreshTradeoff()
+{
+    // The tab's pictures are slices of the store's grid, drawn with the report it rescales.
+    const GridRun &run = m_workbook.results().grid();
+    if (!run.report || !run.grid)
+        return; // nothing computed yet: the grid is on its way
+    TradeoffOptions options = tradeoffOptions(m_workbook.currency());
+    m_tradeoff->setData(buildTradeoffChartData(*run.report, *run.grid, options));
+}
+
 void ChartTabs::refreshLossTail()
 {
     const ResultsStore &store = m_workbook.results();
@@ -202,13 +308,6 @@ void ChartTabs::refreshLossTail()
 }
 
 namespace {
-
-TradeoffOptions tradeoffOptions(const QString &currency)
-{
-    TradeoffOptions o;
-    o.currency = currency;
-    return o;
-}
 
 ContributionsOptions contributionsOptions(const QString &currency)
 {
@@ -248,7 +347,7 @@ void ChartTabs::refreshTab(int tab)
     if (tab == 0)
         refreshLossTail();
     else if (tab == 1)
-        m_tradeoff->setData(buildTradeoffChartData(*report, tradeoffOptions(m_workbook.currency())));
+        refreshTradeoff();
     else
         m_contributions->setData(buildContributionsChartData(*report, contributionsOptions(m_workbook.currency())));
 }

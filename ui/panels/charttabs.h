@@ -17,6 +17,8 @@
 class QAction;
 class QCheckBox;
 class QLabel;
+class QProgressBar;
+class QPushButton;
 class QStackedWidget;
 class QTabWidget;
 
@@ -60,6 +62,9 @@ private:
     void refreshLossTail();
     void watchOverlays();
     void refreshTab(int tab);
+    void refreshTradeoff();
+    void watchGrid();
+    void refreshGridStatus();
     void updateChartActions();
 
     Workbook &m_workbook;
@@ -76,6 +81,13 @@ private:
     ModelComparisonView *m_comparison = nullptr;
     WhatIfPanel *m_whatIf = nullptr;
     StressPanel *m_stress = nullptr;
+    // The horizon-and-confidence grid's run (the store's Grid part, computed in the background).
+    QWidget *m_gridRow = nullptr;
+    QLabel *m_gridStatus = nullptr;
+    QProgressBar *m_gridProgress = nullptr;
+    QPushButton *m_gridStop = nullptr;
+    QPushButton *m_gridAgain = nullptr;
+    bool m_gridStopped = false; // until "Compute again" or a change of its inputs
     QAction *m_exportChart = nullptr;
     QAction *m_copyChart = nullptr;
     std::array<bool, 3> m_stale{true, true, true}; // tab needs new data before it is drawn
