@@ -9,6 +9,7 @@
 #include "document/workbookfile.h"
 #include "export/chartexporter.h"
 #include "export/reportexport.h"
+#include "export/tablefile.h"
 #include "panels/assumptionspane.h"
 #include "panels/cautionsnote.h"
 #include "text/cautions.h"
@@ -35,6 +36,7 @@
 #include <QSettings>
 #include <QSplitter>
 #include <QStatusBar>
+#include <QTableView>
 #include <QToolButton>
 #include <QUndoStack>
 #include <QVBoxLayout>
@@ -72,8 +74,55 @@ MainWindow::MainWindow(QWidget *parent) : QMainWindow(parent)
     m_recovery = new RecoveryFile(*m_workbook, RecoveryFile::defaultFolder(), this);
     connect(m_recovery, &RecoveryFile::writeFailed, this,
             [this](const QString &text) { statusBar()->showMessage(text, 3 * kStatusTimeoutMs); });
+    offerTableExports();
     readSettings();
     updateTitle();
+}
+
+void MainWindow::offerTableExports()
+{
+    for (QTableView *view : findChildren<QTableView *>()) {
+        auto *action = new QAction(tr("Export Table…"), view);
+        action->setToolTip(tr("Write this table to an .xlsx workbook or a CSV file, figures as numbers"));
+        connect(action, &QAction::triggered, this, [this, view] { exportTableWithDialog(view); });
+        view->addAction(action);
+        view->setContextMenuPolicy(Qt::ActionsContextMenu);
+    }
+}
+
+namespace {
+QString tableName(const QTableView *view)
+{
+    return view->accessibleName().isEmpty() ? MainWindow::tr("Table") : view->accessibleName();
+}
+} // namespace
+
+void MainWindow::exportTableWithDialog(const QTableView *view)
+{
+    const QString xlsxFilter = tr("Excel workbooks (*.xlsx)"), csvFilter = tr("CSV files (*.csv)");
+    QString filter = xlsxFilter;
+    QString path = QFileDialog::getSaveFileName(this, tr("Export Table"),
+                                                QDir(dialogFolder()).filePath(tableName(view) + QStringLiteral(".xlsx")),
+                                                xlsxFilter + QStringLiteral(";;") + csvFilter, &filter);
+    if (path.isEmpty())
+        return;
+    if (QFileInfo(path).suffix().isEmpty())
+        path += filter == csvFilter ? QStringLiteral(".csv") : QStringLiteral(".xlsx");
+    if (const QString problem = exportTableFile(view, path); !problem.isEmpty())
+        showProblem(tr("Could not export the table"), problem);
+    else
+        statusBar()->showMessage(tr("Exported the table to %1.").arg(QDir::toNativeSeparators(path)), kStatusTimeoutMs);
+}
+
+QString MainWindow::exportTableFile(const QTableView *view, const QString &path)
+{
+    if (!view->model())
+        return tr("The table is empty.");
+    if (const QString refusal = refusalToOverwriteInput(path, m_workbook->inputFiles()); !refusal.isEmpty())
+        return refusal;
+    if (const auto written = writeTableFile(*view->model(), tableName(view), path); !written)
+        return QString::fromStdString(written.error().message);
+    return {};
 }
 
 ResultsStore &MainWindow::results() const

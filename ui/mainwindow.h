@@ -15,6 +15,8 @@ class QProgressBar;
 class QSplitter;
 class QToolButton;
 
+class QTableView;
+
 namespace tailwise::ui {
 
 class Actions;
@@ -58,6 +60,9 @@ public:
     // Starts writing the workbook's PDF report to `path` (a job on the results store's runner); the status line says when it
     // is written, a message box why not.
     void exportReportFile(const QString &path);
+    // Writes the table shown by `view` to `path` (.xlsx or .csv; export/tablefile.h); empty on
+    // success, or the reason nothing was written.
+    QString exportTableFile(const QTableView *view, const QString &path);
 
 protected:
     void closeEvent(QCloseEvent *event) override;
@@ -80,6 +85,9 @@ private:
     void importHoldingsWithDialog();
     void exportHoldingsWithDialog();
     void exportReportWithDialog();
+    // Every table of the window gets "Export Table…" in its context menu.
+    void offerTableExports();
+    void exportTableWithDialog(const QTableView *view);
     void showAbout();
     void addRecentFile(const QString &path);
     QString dialogFolder() const;

@@ -23,6 +23,7 @@
 #include <QFile>
 #include <QLabel>
 #include <QLineEdit>
+#include <QProcess>
 #include <QSignalSpy>
 #include <QSlider>
 #include <QSortFilterProxyModel>
@@ -30,6 +31,7 @@
 #include <QTemporaryDir>
 #include <QUndoStack>
 
+#include <algorithm>
 #include <cmath>
 
 using namespace tailwise;
@@ -403,6 +405,62 @@ private slots:
         const QString wideShort = shortName(wide);
         QCOMPARE(wideShort.toUcs4().size(), qsizetype(shortNameChars));
         QVERIFY(!wideShort.isEmpty() && !wideShort.back().isHighSurrogate());
+    }
+
+    // Every table of the window offers "Export Table…"; the holdings go to .xlsx with figures as
+    // numbers in money and percent formats (read back with openpyxl, Debian's python3-openpyxl)
+    // and to CSV; a file the workbook was read from is refused.
+    void tablesExportWithFiguresAsNumbers()
+    {
+        auto w = sampleWindow();
+        for (QTableView *view : w->findChildren<QTableView *>()) {
+            const auto actions = view->actions();
+            QVERIFY2(std::any_of(actions.begin(), actions.end(),
+                                 [](const QAction *a) { return a->text().startsWith(QStringLiteral("Export Table")); }),
+                     qPrintable(view->objectName()));
+        }
+        auto *view = w->holdingsEditor()->tableView();
+        QTemporaryDir dir;
+        const QString xlsx = dir.filePath(QStringLiteral("holdings.xlsx"));
+        const QString csv = dir.filePath(QStringLiteral("holdings.csv"));
+        QVERIFY(w->exportTableFile(view, xlsx).isEmpty());
+        QVERIFY(w->exportTableFile(view, csv).isEmpty());
+        QVERIFY(w->exportTableFile(view, dir.filePath(QStringLiteral("holdings.txt"))).contains(QStringLiteral(".txt")));
+        QVERIFY(w->exportTableFile(view, samplePath("prices.csv")).contains(QStringLiteral("would replace")));
+
+        // The first holding's market value as the model holds it, rounded as shown (whole units).
+        const QAbstractItemModel *model = view->model();
+        int valueColumn = -1;
+        for (int c = 0; c < model->columnCount(); ++c)
+            if (model->headerData(c, Qt::Horizontal).toString() == QStringLiteral("Market value"))
+                valueColumn = c;
+        QVERIFY(valueColumn >= 0);
+        const auto shownValue = readNumber(model->index(0, valueColumn).data().toString());
+        QVERIFY(shownValue);
+        QFile f(csv);
+        QVERIFY(f.open(QIODevice::ReadOnly));
+        const QStringList lines = QString::fromUtf8(f.readAll()).split(QLatin1Char('\n'), Qt::SkipEmptyParts);
+        QCOMPARE(lines.size(), model->rowCount() + 1);
+        QVERIFY2(lines[0].contains(QStringLiteral("Market value")), qPrintable(lines[0]));
+
+        QProcess python;
+        python.start(QStringLiteral("/usr/bin/python3"),
+                     {QStringLiteral("-c"),
+                      QStringLiteral("import sys, openpyxl\n"
+                                     "ws = openpyxl.load_workbook(sys.argv[1]).active\n"
+                                     "c = ws.cell(row=2, column=int(sys.argv[2]) + 1)\n"
+                                     "print(type(c.value).__name__, repr(c.value), c.number_format, ws.freeze_panes)\n"),
+                      xlsx, QString::number(valueColumn)});
+        QVERIFY(python.waitForFinished(60000));
+        const QString out = QString::fromUtf8(python.readAllStandardOutput()).trimmed();
+        if (python.exitCode() != 0 && python.readAllStandardError().contains("No module named 'openpyxl'"))
+            QSKIP("python3-openpyxl is not installed: the .xlsx is not read back");
+        const QStringList parts = out.split(QLatin1Char(' '));
+        QVERIFY2(parts.size() >= 4 && (parts[0] == QStringLiteral("float") || parts[0] == QStringLiteral("int")),
+                 qPrintable(out)); // a number, not text
+        QCOMPARE(parts[1].toDouble(), *shownValue);
+        QVERIFY2(parts[2].contains(QStringLiteral("#,##0")), qPrintable(out));
+        QCOMPARE(parts[3], QStringLiteral("A2"));
     }
 
     void pasteIsOneUndoStep()

@@ -177,6 +177,7 @@ BacktestView::BacktestView(Workbook &workbook, QWidget *parent) : QWidget(parent
 
     m_exceptionsBox = new QGroupBox(tr("Exceptions"), results);
     m_exceptions = makeTable({tr("Date"), tr("P&L"), tr("VaR"), tr("Beyond VaR")}, m_exceptionsBox);
+    m_exceptions->setAccessibleName(tr("Backtest exceptions"));
     m_exceptions->setToolTip(tr("Each day whose loss was greater than its VaR forecast, and by how much."));
     auto *exceptionsLayout = new QVBoxLayout(m_exceptionsBox);
     exceptionsLayout->addWidget(m_exceptions);
@@ -185,6 +186,7 @@ BacktestView::BacktestView(Workbook &workbook, QWidget *parent) : QWidget(parent
     m_comparison = makeTable({tr("Model"), tr("Exceptions"), tr("Kupiec p"), tr("Independence p"), tr("Coverage p"),
                               tr("Zone"), tr("Verdict")},
                              m_comparisonBox);
+    m_comparison->setAccessibleName(tr("Backtest models"));
     m_comparison->setToolTip(tr("Every model backtested over the same days at the same window, confidence and test size."));
     // Room for the four models without scrolling.
     m_comparison->setMinimumHeight((m_comparison->fontMetrics().height() + 6) * 6 + 4);

@@ -79,6 +79,7 @@ HoldingsEditor::HoldingsEditor(Workbook &workbook, QWidget *parent) : QWidget(pa
 
     m_view = new QTableView(this);
     m_view->setObjectName(QStringLiteral("holdingsTable"));
+    m_view->setAccessibleName(tr("Holdings")); // the sheet's name when the table is exported
     m_view->setModel(m_proxy);
     m_view->setItemDelegate(new AssetDelegate(workbook, m_view));
     m_view->setSortingEnabled(true);

@@ -26,6 +26,7 @@ ModelComparisonView::ModelComparisonView(Workbook &workbook, QWidget *parent)
     intro->setWordWrap(true);
     m_table = new QTableView(this);
     m_table->setObjectName(QStringLiteral("modelComparisonTable"));
+    m_table->setAccessibleName(tr("Models side by side")); // the sheet's name when the table is exported
     m_table->setModel(m_model);
     m_table->setSelectionBehavior(QAbstractItemView::SelectRows);
     m_table->setEditTriggers(QAbstractItemView::NoEditTriggers);

@@ -73,6 +73,7 @@ StressPanel::StressPanel(Workbook &workbook, QWidget *parent) : QWidget(parent),
 
     m_outcomesTable = new QTableWidget(0, OColumnCount, this);
     m_outcomesTable->setObjectName(QStringLiteral("stressOutcomes"));
+    m_outcomesTable->setAccessibleName(tr("Stress")); // the sheet's name when the table is exported
     m_outcomesTable->setHorizontalHeaderLabels({tr("Scenario or day"), tr("Date"), tr("P&L"), tr("% of value")});
     m_outcomesTable->verticalHeader()->hide();
     m_outcomesTable->setEditTriggers(QAbstractItemView::NoEditTriggers);

@@ -99,6 +99,7 @@ WhatIfPanel::WhatIfPanel(Workbook &workbook, QWidget *parent)
 
     m_contributions = new QTableWidget(0, CColumnCount, this);
     m_contributions->setObjectName(QStringLiteral("whatIfContributions"));
+    m_contributions->setAccessibleName(tr("Trade contributions")); // the sheet's name when the table is exported
     m_contributions->setHorizontalHeaderLabels({tr("Asset"), tr("Quantity now"), tr("After"), tr("Part of VaR now"),
                                                 tr("After"), tr("Change")});
     m_contributions->verticalHeader()->hide();
