@@ -383,7 +383,12 @@ private slots:
         QVERIFY(titleLabel);
         QVERIFY2(titleLabel->text().size() < longTitle.size() && titleLabel->toolTip() == longTitle,
                  qPrintable(titleLabel->text()));
-        // No wider than the same window holding the sample's short names.
+        // No wider than the same window holding the sample's short names; and that window fits
+        // a 1366-pixel-wide laptop screen (a common size, from memory).
+        {
+            auto small = sampleWindow();
+            QVERIFY2(small->minimumSizeHint().width() <= 1366, qPrintable(QString::number(small->minimumSizeHint().width())));
+        }
         auto sample = sampleWindow();
         sample->resize(1360, 860);
         sample->show();

@@ -4,6 +4,7 @@
 #include "document/resultsstore.h"
 #include "document/savefile.h"
 #include "document/workbook.h"
+#include "panels/elidedlabel.h"
 #include "panels/tablecolumns.h"
 #include "holdingspaste.h"
 #include "text/numbers.h"
@@ -96,9 +97,10 @@ HoldingsEditor::HoldingsEditor(Workbook &workbook, QWidget *parent) : QWidget(pa
     m_view->setWordWrap(false);
 
     auto *title = new QLabel(tr("<b>Holdings</b>"), this);
-    auto *hint = new QLabel(tr("Double-click a cell to edit; paste rows from a spreadsheet with %1.")
-                                .arg(QKeySequence(QKeySequence::Paste).toString(QKeySequence::NativeText)),
-                            this);
+    // Elided when space is short, so that the hint never sets the window's minimum width.
+    auto *hint = new ElidedLabel(this);
+    hint->setFullText(tr("Double-click a cell to edit; paste rows from a spreadsheet with %1.")
+                          .arg(QKeySequence(QKeySequence::Paste).toString(QKeySequence::NativeText)));
     hint->setStyleSheet(QStringLiteral("color: palette(mid);"));
     m_buttonRow = new QWidget(this);
     auto *buttons = new QHBoxLayout(m_buttonRow);
