@@ -22,6 +22,7 @@
 #include <QCheckBox>
 #include <QFileInfo>
 #include <QLabel>
+#include <QPushButton>
 #include <QStatusBar>
 #include <QTabWidget>
 #include <QTemporaryDir>
@@ -136,6 +137,50 @@ private slots:
         wb.undoStack()->undo();
         QTRY_VERIFY_WITH_TIMEOUT(store.isReady(Part::Headline) && store.report()->figures.var == before, 30000);
         picture(&window, QStringLiteral("tour-9-after-undo"));
+    }
+
+    // The horizon tab under Monte Carlo: the grid's run shows under the tabs with a Stop button;
+    // a stop keeps the drawn figures, marked out of date, and "Compute again" brings the new ones.
+    void horizonTabStopAndComputeAgain()
+    {
+        MainWindow window;
+        QCOMPARE(window.openWorkbookFile(test::samplePath("larchmere.tailwise")), QString());
+        window.resize(1400, 900);
+        window.show();
+        QVERIFY(QTest::qWaitForWindowExposed(&window));
+        Workbook &wb = window.workbook();
+        ResultsStore &store = wb.results();
+        ChartTabs *charts = window.chartTabs();
+        charts->tabs()->setCurrentWidget(charts->tradeoffChart());
+        QTRY_VERIFY_WITH_TIMEOUT(store.isReady(Part::Grid), 30000);
+        const double drawn = charts->tradeoffChart()->data().currentVar;
+        auto *row = charts->findChild<QWidget *>(QStringLiteral("gridRun"));
+        QVERIFY(row);
+        QPushButton *stop = nullptr, *again = nullptr;
+        for (QPushButton *b : row->findChildren<QPushButton *>())
+            (b->text() == QStringLiteral("Stop") ? stop : again) = b;
+        QVERIFY(stop && again);
+
+        Assumptions a = wb.assumptions();
+        a.model = RiskModel::MonteCarlo;
+        edit::setAssumptions(wb, a, QStringLiteral("Monte Carlo"));
+        QTRY_VERIFY_WITH_TIMEOUT(store.isRunning(Part::Grid), 10000);
+        QVERIFY(row->isVisible() && stop->isVisible());
+        picture(&window, QStringLiteral("tour-grid-running"));
+        stop->click();
+        QCOMPARE(store.state(Part::Grid), PartState::OutOfDate);
+        QVERIFY(row->isVisible() && again->isVisible() && !stop->isVisible());
+        QCOMPARE(charts->tradeoffChart()->data().currentVar, drawn); // the last figures stay drawn
+        QTest::qWait(300);
+        QCOMPARE(store.state(Part::Grid), PartState::OutOfDate); // stopped stays stopped
+        picture(&window, QStringLiteral("tour-grid-stopped"));
+        again->click();
+        QTRY_VERIFY_WITH_TIMEOUT(store.isReady(Part::Grid)
+                                     && store.status(Part::Grid).generation == store.inputGeneration(Part::Grid),
+                                 60000);
+        QVERIFY(!row->isVisible());
+        QCOMPARE(charts->tradeoffChart()->data().currentVar, store.report()->figures.var);
+        QCOMPARE(store.grid().report->model.used, RiskModel::MonteCarlo);
     }
 };
 
