@@ -17,10 +17,11 @@ namespace tailwise::ui {
 namespace {
 
 // Confidence axes run on the tail scale −log10(1 − C); ticks at the levels people quote.
-QSharedPointer<QCPAxisTickerText> confidenceTicker()
+QSharedPointer<QCPAxisTickerText> confidenceTicker(std::initializer_list<double> levels = {0.90, 0.95, 0.975, 0.99,
+                                                                                           0.995, 0.999})
 {
     QSharedPointer<QCPAxisTickerText> ticker(new QCPAxisTickerText);
-    for (double c : {0.90, 0.95, 0.975, 0.99, 0.995, 0.999})
+    for (double c : levels)
         ticker->addTick(confidenceToTailScale(c), chartstyle::confidenceText(c));
     return ticker;
 }
@@ -150,6 +151,8 @@ void TradeoffChart::buildConfidencePlot()
 void TradeoffChart::setForPaper()
 {
     m_mapTitle->setText(tr("VaR over horizon and confidence"));
+    // At print sizes 97.5% and 99.5% touch their neighbours along the line's horizontal axis.
+    m_confidencePlot->xAxis->setTicker(confidenceTicker({0.90, 0.95, 0.99, 0.999}));
 }
 
 void TradeoffChart::buildMapPlot()

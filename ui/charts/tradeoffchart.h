@@ -36,7 +36,8 @@ public:
     QCustomPlot *confidencePlot() const { return m_confidencePlot; }
     QCustomPlot *mapPlot() const { return m_mapPlot; }
 
-    // For paper: the map's title without the invitation to click it.
+    // For paper: the map's title without the invitation to click it, and the confidence line's
+    // axis with the ticks that do not touch at print sizes (90%, 95%, 99%, 99.9%).
     void setForPaper();
 
     // The widget pixel (in mapPlot()) of a horizon and confidence, e.g. for tests that click.
