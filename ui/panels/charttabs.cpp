@@ -275,8 +275,11 @@ void ChartTabs::refreshTradeoff()
 {
     // The tab's pictures are slices of the store's grid, drawn with the report it rescales.
     const GridRun &run = m_workbook.results().grid();
-    if (!run.report || !run.grid)
-        return; // nothing computed yet: the grid is on its way
+    if (!run.report || !run.grid) {
+        // Nothing computed for this workbook yet (the grid is on its way): never another one's.
+        m_tradeoff->setData(TradeoffChartData{});
+        return;
+    }
     TradeoffOptions options = tradeoffOptions(m_workbook.currency());
     m_tradeoff->setData(buildTradeoffChartData(*run.report, *run.grid, options));
 }
